@@ -1,0 +1,37 @@
+import { describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig } from './app-config.js';
+
+describe('loadConfig', () => {
+  it('needs nothing set', () => {
+    const config = loadConfig({});
+    expect(config.http.port).toBe(3000);
+    expect(config.data.dir).toMatch(/data$/);
+    expect(config.log.level).toBe('info');
+    expect(config.version).toMatch(/^\d+\.\d+\.\d+/);
+  });
+
+  it('lists every bad variable in one message', () => {
+    let error: unknown;
+    try {
+      loadConfig({ PORT: 'eighty', LOG_LEVEL: 'loud', DATABASE_URL: 'mysql://x' });
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(ConfigError);
+    const { problems, message } = error as ConfigError;
+    expect(problems).toHaveLength(3);
+    expect(message).toContain('PORT="eighty"');
+    expect(message).toContain('LOG_LEVEL="loud"');
+    expect(message).toContain('DATABASE_URL="mysql://x"');
+  });
+
+  it('refuses a port out of range', () => {
+    expect(() => loadConfig({ PORT: '70000' })).toThrow(
+      /PORT="70000": must be between 0 and 65535/,
+    );
+  });
+
+  it('treats an empty variable as unset', () => {
+    expect(loadConfig({ PORT: '' }).http.port).toBe(3000);
+  });
+});

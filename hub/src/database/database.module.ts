@@ -1,0 +1,27 @@
+import { Global, Inject, Logger, Module, OnApplicationShutdown } from '@nestjs/common';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { Database } from './database.js';
+
+@Global()
+@Module({
+  providers: [
+    {
+      provide: Database,
+      inject: [APP_CONFIG],
+      useFactory: async (config: AppConfig): Promise<Database> => {
+        const database = await Database.open(config.data.dir, config.paths.migrations);
+        new Logger('Database').log(`Embedded PostgreSQL open in ${config.data.dir}`);
+        return database;
+      },
+    },
+  ],
+  exports: [Database],
+})
+export class DatabaseModule implements OnApplicationShutdown {
+  constructor(@Inject(Database) private readonly database: Database) {}
+
+  async onApplicationShutdown(): Promise<void> {
+    await this.database.close();
+    new Logger('Database').log('Embedded PostgreSQL closed');
+  }
+}

@@ -1,0 +1,97 @@
+import { readFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { healthResponseSchema } from '@tareline/protocol';
+import { sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Database, DataDirInUseError } from '../src/database/database.js';
+import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
+
+describe('hub, booted for real on a temporary PGlite folder', () => {
+  let hub: TestHub;
+  let data: Awaited<ReturnType<typeof tempDataDir>>;
+
+  beforeAll(async () => {
+    data = await tempDataDir();
+    hub = await startTestHub(data.dir);
+  });
+
+  afterAll(async () => {
+    await hub?.close();
+    await data?.remove();
+  });
+
+  it('answers /api/health with the database ok', async () => {
+    const res = await fetch(`${hub.url}/api/health`);
+    expect(res.status).toBe(200);
+    const body = healthResponseSchema.parse(await res.json());
+    expect(body.status).toBe('ok');
+    expect(body.db).toEqual({ ok: true, driver: 'pglite' });
+    expect(body.version).toBe(hub.config.version);
+  });
+
+  it('has applied every migration in drizzle/', async () => {
+    const journal = JSON.parse(
+      await readFile(join(hub.config.paths.migrations, 'meta', '_journal.json'), 'utf8'),
+    ) as { entries: unknown[] };
+    const database = hub.app.get(Database);
+    const applied = await database.db.execute<{ n: number }>(
+      sql`select count(*)::int as n from drizzle.__drizzle_migrations`,
+    );
+    expect(applied.rows[0]?.n).toBe(journal.entries.length);
+    const tables = await database.db.execute<{ table_name: string }>(
+      sql`select table_name from information_schema.tables where table_schema = 'public'`,
+    );
+    expect(tables.rows.map((r) => r.table_name)).toContain('benches');
+  });
+
+  it('refuses a second hub on the same data folder with a clear message', async () => {
+    await expect(startTestHub(data.dir)).rejects.toThrow(DataDirInUseError);
+    await expect(startTestHub(data.dir)).rejects.toThrow(/already in use by another Tareline hub/);
+    // The first hub is unharmed.
+    const res = await fetch(`${hub.url}/api/health`);
+    expect(((await res.json()) as { status: string }).status).toBe('ok');
+  });
+
+  it('answers an unknown API route with 404 in the error shape, not the station page', async () => {
+    const res = await fetch(`${hub.url}/api/no-such-thing`);
+    expect(res.status).toBe(404);
+    const body = (await res.json()) as { message: string; errors: unknown[] };
+    expect(body.message).toMatch(/Cannot GET/);
+    expect(body.errors).toEqual([]);
+  });
+
+  it('reports degraded, not a crash, when the database stops answering', async () => {
+    const database = hub.app.get(Database);
+    const original = database.ping.bind(database);
+    database.ping = () => Promise.reject(new Error('database closed'));
+    try {
+      const res = await fetch(`${hub.url}/api/health`);
+      expect(res.status).toBe(200);
+      const body = healthResponseSchema.parse(await res.json());
+      expect(body.status).toBe('degraded');
+      expect(body.db.ok).toBe(false);
+    } finally {
+      database.ping = original;
+    }
+  });
+});
+
+describe('data folder', () => {
+  it('keeps its data across a close and a reopen', async () => {
+    const data = await tempDataDir();
+    try {
+      const migrations = join(import.meta.dirname, '..', '..', 'drizzle');
+      const first = await Database.open(data.dir, migrations);
+      await first.db.execute(sql`insert into benches (id, name) values ('bench-9', 'Resin bench')`);
+      await first.close();
+      const second = await Database.open(data.dir, migrations);
+      const rows = await second.db.execute<{ name: string }>(
+        sql`select name from benches where id = 'bench-9'`,
+      );
+      await second.close();
+      expect(rows.rows).toEqual([{ name: 'Resin bench' }]);
+    } finally {
+      await data.remove();
+    }
+  });
+});

@@ -1,0 +1,15 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  // Use protocol's and simulator's TypeScript source directly, without a build.
+  ssr: { resolve: { conditions: ['@tareline/source'] } },
+  test: {
+    include: ['src/**/*.test.ts', 'test/**/*.test.ts'],
+    // Pseudo-terminal tests need socat from Debian: they run in `npm run test:e2e`.
+    exclude: ['test/**/*.pty.test.ts'],
+    // Each e2e-style test opens its own PGlite; two at a time is what 2 cores take.
+    maxWorkers: 2,
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
+  },
+});

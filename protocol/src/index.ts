@@ -1,0 +1,2 @@
+export * from './health.js';
+export * from './errors.js';

@@ -1,0 +1,1 @@
+export { usage, parseArgs } from './usage.js';

@@ -1,0 +1,71 @@
+import { screen } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { routes } from '../../app/router';
+import { renderRoutes } from '../../testing/render';
+
+function answerHealth(body: unknown, status = 200) {
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(
+      async () =>
+        new Response(JSON.stringify(body), {
+          status,
+          headers: { 'Content-Type': 'application/json' },
+        }),
+    ),
+  );
+}
+
+afterEach(() => {
+  vi.unstubAllGlobals();
+});
+
+describe('app shell', () => {
+  it('shows both areas and says the hub is connected when it answers ok', async () => {
+    answerHealth({
+      status: 'ok',
+      version: '0.1.0',
+      uptimeS: 3,
+      db: { ok: true, driver: 'pglite' },
+    });
+    renderRoutes(routes, '/');
+    expect(await screen.findByRole('heading', { name: 'Bench' })).toBeInTheDocument();
+    const nav = screen.getByRole('navigation', { name: 'Areas' });
+    expect(nav).toHaveTextContent('Bench');
+    expect(nav).toHaveTextContent('Review');
+    expect(await screen.findByText('Hub: connected')).toBeInTheDocument();
+  });
+
+  it('goes to the review area when its link is pressed', async () => {
+    answerHealth({
+      status: 'ok',
+      version: '0.1.0',
+      uptimeS: 3,
+      db: { ok: true, driver: 'pglite' },
+    });
+    renderRoutes(routes, '/bench');
+    await userEvent.click(screen.getByRole('link', { name: 'Review' }));
+    expect(await screen.findByRole('heading', { name: 'Review' })).toBeInTheDocument();
+  });
+
+  it('warns when the database does not answer', async () => {
+    answerHealth({
+      status: 'degraded',
+      version: '0.1.0',
+      uptimeS: 3,
+      db: { ok: false, driver: 'pglite', detail: 'closed' },
+    });
+    renderRoutes(routes, '/bench');
+    expect(await screen.findByText('Hub: database problem')).toBeInTheDocument();
+  });
+
+  it('says so when the hub cannot be reached', async () => {
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))),
+    );
+    renderRoutes(routes, '/bench');
+    expect(await screen.findByText('Hub: not reachable')).toBeInTheDocument();
+  });
+});

@@ -1,0 +1,37 @@
+import { NavLink, Outlet } from 'react-router-dom';
+import { HubStatus } from '../../features/health/components/hub-status';
+
+const areas = [
+  { to: '/bench', label: 'Bench' },
+  { to: '/review', label: 'Review' },
+];
+
+/** Header with the two areas of the product and the hub indicator; pages render below it. */
+export function AppShell() {
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="flex items-center justify-between gap-6 bg-steel px-6 py-3 text-paper">
+        <div className="flex items-center gap-8">
+          <span className="text-2xl font-bold tracking-wide">Tareline</span>
+          <nav aria-label="Areas" className="flex gap-2">
+            {areas.map((area) => (
+              <NavLink
+                key={area.to}
+                to={area.to}
+                className={({ isActive }) =>
+                  `rounded-md px-4 py-2 text-lg font-semibold ${isActive ? 'bg-brass text-ink' : 'hover:bg-white/10'}`
+                }
+              >
+                {area.label}
+              </NavLink>
+            ))}
+          </nav>
+        </div>
+        <HubStatus />
+      </header>
+      <main className="flex-1 p-6">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,46 @@
+import { apiErrorSchema, type ApiError } from '@tareline/protocol';
+import type { z } from 'zod';
+
+/** A refused or failed call to the hub, with the hub's own message and bad fields. */
+export class ApiRequestError extends Error {
+  constructor(
+    readonly status: number,
+    readonly body: ApiError,
+  ) {
+    super(body.message);
+    this.name = 'ApiRequestError';
+  }
+}
+
+/**
+ * Calls the hub's API and validates the answer with a protocol schema, so a hub and station of
+ * different versions fail loudly instead of drawing nonsense.
+ */
+export async function apiRequest<S extends z.ZodType>(
+  path: string,
+  schema: S,
+  init: RequestInit = {},
+): Promise<z.infer<S>> {
+  let response: Response;
+  try {
+    response = await fetch(`/api${path}`, {
+      ...init,
+      headers: {
+        Accept: 'application/json',
+        ...(init.body ? { 'Content-Type': 'application/json' } : {}),
+        ...init.headers,
+      },
+    });
+  } catch {
+    throw new ApiRequestError(0, { message: 'The hub cannot be reached', errors: [] });
+  }
+  const body: unknown = await response.json().catch(() => undefined);
+  if (!response.ok) {
+    const parsed = apiErrorSchema.safeParse(body);
+    throw new ApiRequestError(
+      response.status,
+      parsed.success ? parsed.data : { message: `The hub answered ${response.status}`, errors: [] },
+    );
+  }
+  return schema.parse(body);
+}
