@@ -1,2 +1,3 @@
 export * from './health.js';
 export * from './errors.js';
+export * from './roles.js';

@@ -1,8 +1,19 @@
-import { pgTable, text, timestamp } from 'drizzle-orm/pg-core';
+import { boolean, integer, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
 
-/** A mixing bench: one scale, one screen. The scale link columns come with the scale-link work. */
+/** A mixing bench: one scale, one shared screen. */
 export const benches = pgTable('benches', {
+  /** Short stable code, e.g. `bench-1`; used in URLs and on the socket. */
   id: text('id').primaryKey(),
   name: text('name').notNull(),
+  /**
+   * How to reach the bench's scale, as a URL (`serial:///dev/ttyUSB0?baud=9600`,
+   * `tcp://host:port`, `sim://`). Null: the default (TARELINE_SCALE, else the simulator).
+   */
+  scaleUrl: text('scale_url'),
+  /** Every operator must enter a PIN at this bench, not only those who have one. */
+  pinRequired: boolean('pin_required').notNull().default(false),
+  /** Minutes without a touch before the bench signs its operator out. */
+  idleSignOutMin: integer('idle_sign_out_min').notNull().default(5),
+  active: boolean('active').notNull().default(true),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
