@@ -1,3 +1,5 @@
 export * from './health.js';
 export * from './errors.js';
 export * from './roles.js';
+export * from './live.js';
+export * from './scale/types.js';
