@@ -29,9 +29,11 @@ export function rescueOverPour(
     );
   }
   const actuals = actualsG.map((a, i) => requireNonNegative(a, `actualsG.${i}`, 'poured mass'));
-  const f = Math.max(...actuals.map((a, i) => a / parts[i]!));
+  const scales = actuals.map((a, i) => a / parts[i]!);
+  const f = Math.max(...scales);
   if (!(f > 0)) throw new MixInputError('actualsG', 'Nothing has been poured');
-  const addG = actuals.map((a, i) => Math.max(0, f * parts[i]! - a));
+  // The part that sets f needs nothing: say exactly 0 rather than a rounding crumb.
+  const addG = actuals.map((a, i) => (scales[i] === f ? 0 : Math.max(0, f * parts[i]! - a)));
   const totalAfterG = f * parts.reduce((a, b) => a + b, 0);
   let fits: boolean | undefined;
   if (opts.capacityG !== undefined) {
