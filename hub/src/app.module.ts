@@ -4,6 +4,7 @@ import type { AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { HealthModule } from './health/health.module.js';
+import { PlanModule } from './plan/plan.module.js';
 
 @Module({})
 export class AppModule {
@@ -14,6 +15,7 @@ export class AppModule {
         ConfigModule.forRoot(config),
         DatabaseModule,
         HealthModule,
+        PlanModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({
           rootPath: config.paths.station,

@@ -15,6 +15,9 @@ export class MixInputError extends Error {
 
 /** Refuses NaN, infinities and values at or below zero. */
 export function requirePositive(value: number, field: string, what: string): number {
+  if (value === Number.POSITIVE_INFINITY) {
+    throw new MixInputError(field, `The ${what} is too large: check the sizes and their units`);
+  }
   if (typeof value !== 'number' || !Number.isFinite(value)) {
     throw new MixInputError(field, `The ${what} must be a number`);
   }

@@ -221,6 +221,12 @@ export function computePlan(req: PlanRequest): PlanResponse {
     throw new MixInputError('cupLossG', 'The cup loss cannot be negative');
   }
   const totalMassG = fillMassG + cupLossG;
+  if (!Number.isFinite(totalMassG)) {
+    throw new MixInputError(
+      'cavity',
+      'The plan is too large to compute: check the sizes and their units',
+    );
+  }
   const weights = weightRatio(req.material.ratio, req.material.partSpecificGravities);
   const partSgs = req.material.partSpecificGravities;
   const tolerancePct = req.tolerancePct ?? DEFAULT_TOLERANCE_PCT;

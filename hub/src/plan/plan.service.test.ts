@@ -1,0 +1,32 @@
+import { BadRequestException } from '@nestjs/common';
+import { describe, expect, it } from 'vitest';
+import { PlanService } from './plan.service.js';
+
+describe('PlanService', () => {
+  it('turns bad input that slipped past the schema into a 400 naming the field', () => {
+    const service = new PlanService();
+    const call = () =>
+      service.compute({
+        cavity: { shape: 'water', waterMassG: 850, waterTempC: 60 },
+        overagePct: 0,
+        cupLossG: 0,
+        tolerancePct: 1,
+        material: { ratio: { basis: 'weight', parts: [100, 14] }, specificGravity: 1.2 },
+      });
+    expect(call).toThrow(BadRequestException);
+    try {
+      call();
+    } catch (err) {
+      expect((err as BadRequestException).getResponse()).toEqual({
+        message: 'The plan request has mistakes',
+        errors: [
+          {
+            path: 'cavity.waterTempC',
+            message:
+              'The water temperature must be between 0 and 40 °C; the density table covers only that range',
+          },
+        ],
+      });
+    }
+  });
+});
