@@ -4,3 +4,5 @@ export * from './roles.js';
 export * from './live.js';
 export * from './scale/types.js';
 export * from './mix/index.js';
+export * from './materials.js';
+export * from './batches.js';

@@ -1,2 +1,4 @@
 // The hub's whole database schema; drizzle-kit reads this file to generate migrations.
 export * from './benches.js';
+export * from './materials.js';
+export * from './batches.js';

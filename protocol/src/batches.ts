@@ -1,0 +1,141 @@
+import { z } from 'zod';
+import { lotWarningSchema } from './materials.js';
+import { positiveMeasure } from './mix/cavity.js';
+
+export const batchStateSchema = z.enum([
+  'weighing-a',
+  'weighing-b',
+  'weighing-c',
+  'saved',
+  'abandoned',
+  'interrupted',
+]);
+export type BatchState = z.infer<typeof batchStateSchema>;
+export const WEIGHING_STATES = ['weighing-a', 'weighing-b', 'weighing-c'] as const;
+
+/** GO: every part within the band. NO-GO: saved outside it, on purpose. */
+export const batchVerdictSchema = z.enum(['GO', 'NO-GO']);
+export type BatchVerdict = z.infer<typeof batchVerdictSchema>;
+
+export const pourVerdictSchema = z.enum(['UNDER', 'SETTLING', 'GO', 'OVER']);
+
+/** Body of `POST /api/batches`. */
+export const createBatchSchema = z.object({
+  benchId: z.string({ error: 'Choose the bench' }).min(1, { error: 'Choose the bench' }),
+  materialId: z.string({ error: 'Choose the material' }).min(1, { error: 'Choose the material' }),
+  totalMassG: positiveMeasure('total mass').max(100_000, {
+    error: 'A batch above 100 kg is surely a typing mistake',
+  }),
+  /** Lot codes as scanned from the labels, one per part at most. */
+  lots: z
+    .array(
+      z.object({
+        part: z.number().int().min(0).max(2),
+        code: z.string().trim().min(1, { error: 'Scan or enter the lot code' }).max(80),
+      }),
+    )
+    .max(3)
+    .default([]),
+});
+export type CreateBatch = z.input<typeof createBatchSchema>;
+
+export const abandonBatchSchema = z.object({
+  reason: z
+    .string({ error: 'Say why the batch is abandoned' })
+    .trim()
+    .min(3, { error: 'Say why the batch is abandoned' })
+    .max(500),
+});
+
+export const batchPartSchema = z.object({
+  label: z.string(),
+  /** Planned mass at the start; for later parts recomputed from part A as poured. */
+  targetG: z.number(),
+  /** What went into the cup, all pours of this part together; null before it was poured. */
+  actualG: z.number().nullable(),
+});
+export type BatchPart = z.infer<typeof batchPartSchema>;
+
+/** The pour the scale is judged against right now. */
+export const activePourSchema = z.object({
+  part: z.number().int(),
+  /** `first`: the part's own pour; `top-up`: adding to it as a rescue. */
+  kind: z.enum(['first', 'top-up']),
+  /** Net grams to pour now (on a freshly tared scale). */
+  targetG: z.number(),
+  /** The band the net reading must end in; null for part A, which sets the scale of the rest. */
+  band: z.object({ lowG: z.number(), highG: z.number() }).nullable(),
+  /** Net grams from which the gauge shows the slow-down zone. */
+  slowDownFromG: z.number(),
+  /** Whether the scale was tared for this pour; no verdict before it is. */
+  tared: z.boolean(),
+});
+export type ActivePour = z.infer<typeof activePourSchema>;
+
+export const rescueSchema = z.object({
+  /** Grams of each part to add; 0 where nothing is needed. */
+  addG: z.array(z.number()),
+  totalAfterG: z.number(),
+  /** Whether the additions fit on the scale; null when its capacity is unknown. */
+  fits: z.boolean().nullable(),
+});
+export type Rescue = z.infer<typeof rescueSchema>;
+
+export const batchSchema = z.object({
+  id: z.number().int(),
+  state: batchStateSchema,
+  verdict: batchVerdictSchema.nullable(),
+  benchId: z.string(),
+  materialId: z.string(),
+  materialName: z.string(),
+  operator: z.object({ id: z.string(), name: z.string() }),
+  totalMassG: z.number(),
+  weightRatio: z.array(z.number()),
+  parts: z.array(batchPartSchema),
+  active: activePourSchema.nullable(),
+  /** Rescue on offer after an over-pour (taken or not). */
+  rescue: rescueSchema.nullable(),
+  ratioDeviationPct: z.number().nullable(),
+  tolerancePct: z.number(),
+  readabilityG: z.number(),
+  lots: z.array(
+    z.object({
+      part: z.number(),
+      code: z.string(),
+      lotId: z.string().nullable(),
+      warnings: z.array(lotWarningSchema),
+    }),
+  ),
+  potLifeMin: z.number().nullable(),
+  potLifeMassG: z.number().nullable(),
+  abandonReason: z.string().nullable(),
+  interruptedReason: z.string().nullable(),
+  /** ISO times of each step: created, partConfirmed (per part), saved, abandoned… */
+  steps: z.record(z.string(), z.string()),
+  createdAt: z.string(),
+  savedAt: z.string().nullable(),
+  /** Every reading of the batch as [ms since start, net g]. Only on the single-batch answer. */
+  trace: z.array(z.tuple([z.number(), z.number()])).optional(),
+});
+export type Batch = z.infer<typeof batchSchema>;
+
+/** Live socket event: the bench's batch changed state (or there is none any more). */
+export const batchEventSchema = z.object({
+  benchId: z.string(),
+  batch: batchSchema.nullable(),
+});
+export type BatchEvent = z.infer<typeof batchEventSchema>;
+
+/** Live socket event: the hub's judgement of the latest reading against the active pour. */
+export const pourEventSchema = z.object({
+  benchId: z.string(),
+  batchId: z.number().int(),
+  part: z.number().int(),
+  netG: z.number(),
+  stable: z.boolean(),
+  /** Null while the scale is not online: no verdict is given then. */
+  verdict: pourVerdictSchema.nullable(),
+  /** While GO: milliseconds until the batch saves itself. */
+  saveInMs: z.number().nullable(),
+});
+export type PourEvent = z.infer<typeof pourEventSchema>;

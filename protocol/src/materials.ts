@@ -1,0 +1,123 @@
+import { z } from 'zod';
+import { measure, positiveMeasure } from './mix/cavity.js';
+import { planMaterialSchema } from './mix/plan.js';
+import { DEFAULT_TOLERANCE_PCT } from './mix/targets.js';
+
+const isoDate = z.iso.date({ error: 'Use a date like 2027-03-31' });
+
+/**
+ * A two-part (or three-part) material system as a lead enters it from the maker's data sheet:
+ * its ratio and density (as the pour plan takes them) plus what the bench needs around a pour.
+ */
+export const materialInputSchema = planMaterialSchema.safeExtend({
+  name: z
+    .string({ error: 'Enter a name' })
+    .trim()
+    .min(1, { error: 'Enter a name' })
+    .max(120, { error: 'Keep the name under 120 characters' }),
+  /** What the bench calls each part, part A first (e.g. "Resin", "Hardener"). */
+  partLabels: z.array(z.string().trim().min(1).max(40)).min(2).max(3).optional(),
+  tolerancePct: positiveMeasure('tolerance')
+    .max(50, { error: 'The tolerance must be 50 % or less' })
+    .default(DEFAULT_TOLERANCE_PCT),
+  /** Working time from the data sheet, minutes, for the mass below. */
+  potLifeMin: positiveMeasure('pot life')
+    .max(24 * 60)
+    .optional(),
+  /** Mass the pot life was rated at (data sheets commonly quote 100 g at 25 °C). */
+  potLifeMassG: positiveMeasure('pot life mass').optional(),
+  /** Minutes of mechanical agitation a filled part needs before weighing; 0 = none. */
+  agitateMin: measure('agitation time')
+    .nonnegative({ error: 'The agitation time cannot be negative' })
+    .max(120)
+    .default(0),
+  /** Cautions to show before weighing, in the material's own words (from its SDS). */
+  cautions: z.array(z.string().trim().min(1).max(300)).max(20).default([]),
+  /** Where its safety data sheet is: a URL or a document number in the shop's binder. */
+  sdsRef: z.string().trim().max(500).optional(),
+  /** Days a container may stay open before its lot warns (common practice, no published source). */
+  openShelfLifeDays: z.number().int().positive().max(3650).optional(),
+});
+export type MaterialInput = z.input<typeof materialInputSchema>;
+
+export const materialSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  ratio: z.object({ basis: z.enum(['weight', 'volume']), parts: z.array(z.number()) }),
+  specificGravity: z.number().optional(),
+  yieldIn3PerLb: z.number().optional(),
+  partSpecificGravities: z.array(z.number()).optional(),
+  /** The ratio as parts by weight, what the scale weighs to. */
+  weightRatio: z.array(z.number()),
+  partLabels: z.array(z.string()),
+  tolerancePct: z.number(),
+  potLifeMin: z.number().optional(),
+  potLifeMassG: z.number().optional(),
+  agitateMin: z.number(),
+  cautions: z.array(z.string()),
+  sdsRef: z.string().optional(),
+  openShelfLifeDays: z.number().optional(),
+  active: z.boolean(),
+});
+export type Material = z.infer<typeof materialSchema>;
+
+export const lotInputSchema = z.object({
+  materialId: z.string({ error: 'Choose the material' }).min(1, { error: 'Choose the material' }),
+  /** 0 = part A, 1 = part B, 2 = part C. */
+  part: z.number().int().min(0).max(2, { error: 'A material has at most three parts' }),
+  code: z
+    .string({ error: 'Enter the lot code from the label' })
+    .trim()
+    .min(1, { error: 'Enter the lot code from the label' })
+    .max(80),
+  expiresOn: isoDate.optional(),
+  openedOn: isoDate.optional(),
+});
+export type LotInput = z.input<typeof lotInputSchema>;
+
+export const lotWarningSchema = z.object({
+  code: z.enum(['LOT_EXPIRED', 'LOT_LONG_OPEN', 'LOT_UNKNOWN', 'LOT_WRONG_PART']),
+  message: z.string(),
+});
+export type LotWarning = z.infer<typeof lotWarningSchema>;
+
+export const lotSchema = z.object({
+  id: z.string(),
+  materialId: z.string(),
+  part: z.number(),
+  code: z.string(),
+  expiresOn: z.string().optional(),
+  openedOn: z.string().optional(),
+  warnings: z.array(lotWarningSchema),
+});
+export type Lot = z.infer<typeof lotSchema>;
+
+/** Default days a container may stay open, when the material gives none (common practice, no published source). */
+export const DEFAULT_OPEN_SHELF_LIFE_DAYS = 180;
+
+const DAY_MS = 24 * 60 * 60 * 1000;
+
+/** Warnings for a lot on a given day: expired, or open longer than the material allows. */
+export function lotWarnings(
+  lot: { code: string; expiresOn?: string | undefined; openedOn?: string | undefined },
+  today: string,
+  openShelfLifeDays = DEFAULT_OPEN_SHELF_LIFE_DAYS,
+): LotWarning[] {
+  const warnings: LotWarning[] = [];
+  if (lot.expiresOn && lot.expiresOn < today) {
+    warnings.push({
+      code: 'LOT_EXPIRED',
+      message: `Lot ${lot.code} expired on ${lot.expiresOn}`,
+    });
+  }
+  if (lot.openedOn) {
+    const days = Math.floor((Date.parse(today) - Date.parse(lot.openedOn)) / DAY_MS);
+    if (days > openShelfLifeDays) {
+      warnings.push({
+        code: 'LOT_LONG_OPEN',
+        message: `Lot ${lot.code} has been open ${days} days (limit ${openShelfLifeDays})`,
+      });
+    }
+  }
+  return warnings;
+}
