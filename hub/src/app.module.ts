@@ -4,6 +4,7 @@ import type { AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { HealthModule } from './health/health.module.js';
+import { MaterialsModule } from './materials/materials.module.js';
 import { PlanModule } from './plan/plan.module.js';
 
 @Module({})
@@ -15,6 +16,7 @@ export class AppModule {
         ConfigModule.forRoot(config),
         DatabaseModule,
         HealthModule,
+        MaterialsModule,
         PlanModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({

@@ -1,0 +1,51 @@
+import { Body, Controller, Get, Inject, Param, Post, Query } from '@nestjs/common';
+import { lotInputSchema, materialInputSchema, type Lot, type Material } from '@tareline/protocol';
+import { z } from 'zod';
+import { Roles } from '../auth/access.decorator.js';
+import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { MaterialsService } from './materials.service.js';
+
+const lotQuerySchema = z.object({ materialId: z.string().min(1).optional() });
+
+@Controller()
+export class MaterialsController {
+  constructor(@Inject(MaterialsService) private readonly materials: MaterialsService) {}
+
+  @Get('materials')
+  @Roles('operator', 'lead', 'admin')
+  list(): Promise<Material[]> {
+    return this.materials.list();
+  }
+
+  @Get('materials/:id')
+  @Roles('operator', 'lead', 'admin')
+  get(@Param('id') id: string): Promise<Material> {
+    return this.materials.get(id);
+  }
+
+  @Post('materials')
+  @Roles('lead', 'admin')
+  create(
+    @Body(new ZodValidationPipe(materialInputSchema, 'The material is not valid'))
+    body: z.output<typeof materialInputSchema>,
+  ): Promise<Material> {
+    return this.materials.create(body);
+  }
+
+  @Get('lots')
+  @Roles('operator', 'lead', 'admin')
+  lots(
+    @Query(new ZodValidationPipe(lotQuerySchema)) query: z.output<typeof lotQuerySchema>,
+  ): Promise<Lot[]> {
+    return this.materials.listLots(query.materialId);
+  }
+
+  @Post('lots')
+  @Roles('lead', 'admin')
+  createLot(
+    @Body(new ZodValidationPipe(lotInputSchema, 'The lot is not valid'))
+    body: z.output<typeof lotInputSchema>,
+  ): Promise<Lot> {
+    return this.materials.createLot(body);
+  }
+}
