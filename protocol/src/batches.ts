@@ -137,5 +137,7 @@ export const pourEventSchema = z.object({
   verdict: pourVerdictSchema.nullable(),
   /** While GO: milliseconds until the batch saves itself. */
   saveInMs: z.number().nullable(),
+  /** While OVER: what the rescue would take. */
+  rescue: rescueSchema.nullable(),
 });
 export type PourEvent = z.infer<typeof pourEventSchema>;

@@ -1,3 +1,4 @@
+import type { BatchEvent, PourEvent } from './batches.js';
 import type { ReadingEvent, ScaleStatusEvent } from './scale/types.js';
 
 /** socket.io namespace of the live bench data. */
@@ -10,6 +11,10 @@ export const LIVE_NAMESPACE = '/live';
 export interface LiveServerEvents {
   reading: (event: ReadingEvent) => void;
   scaleStatus: (event: ScaleStatusEvent) => void;
+  /** The bench's batch changed (created, tared, part confirmed, saved, abandoned, interrupted). */
+  batch: (event: BatchEvent) => void;
+  /** The hub's judgement of the latest reading against the active pour. */
+  pour: (event: PourEvent) => void;
 }
 
 /** Events the station may send on `/live` (intents only; the hub decides). */

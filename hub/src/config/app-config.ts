@@ -19,6 +19,7 @@ export interface AppConfig {
   database: { url: string | undefined };
   log: { level: LogLevel };
   paths: { migrations: string; station: string };
+  batches: { saveDwellMs: number };
 }
 
 const portSchema = z.coerce
@@ -39,6 +40,12 @@ const envSchema = z.object({
     .refine((v) => v === '' || /^postgres(ql)?:\/\//.test(v), 'must start with postgres://')
     .optional(),
   TARELINE_STATION_DIR: z.string().min(1).optional(),
+  TARELINE_SAVE_DWELL_MS: z.coerce
+    .number({ error: 'must be a number of milliseconds' })
+    .int('must be a whole number of milliseconds')
+    .min(200, 'must be at least 200 ms')
+    .max(30_000, 'must be at most 30000 ms')
+    .default(1500),
 });
 
 /** Every bad environment variable at once, so a start-up fails with one message to fix them all. */
@@ -93,5 +100,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
         ? resolve(e.TARELINE_STATION_DIR)
         : resolve(hubRoot, '..', 'station', 'dist'),
     },
+    batches: { saveDwellMs: e.TARELINE_SAVE_DWELL_MS },
   };
 }

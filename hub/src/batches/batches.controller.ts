@@ -1,0 +1,93 @@
+import { Body, Controller, Get, Inject, Param, ParseIntPipe, Post, Query } from '@nestjs/common';
+import {
+  abandonBatchSchema,
+  batchStateSchema,
+  createBatchSchema,
+  type Batch,
+} from '@tareline/protocol';
+import { z } from 'zod';
+import { Roles } from '../auth/access.decorator.js';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser } from '../auth/current-user.decorator.js';
+import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { BatchesService } from './batches.service.js';
+
+const listQuerySchema = z.object({
+  benchId: z.string().min(1).optional(),
+  state: batchStateSchema.optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(50),
+});
+const currentQuerySchema = z.object({
+  benchId: z.string({ error: 'Name the bench' }).min(1, { error: 'Name the bench' }),
+});
+const batchId = new ParseIntPipe({
+  exceptionFactory: () => ({ message: 'A batch number is a whole number', errors: [] }),
+});
+
+/** Thin: every rule lives in BatchesService and the batch state machine. */
+@Controller('batches')
+@Roles('operator', 'lead', 'admin')
+export class BatchesController {
+  constructor(@Inject(BatchesService) private readonly batches: BatchesService) {}
+
+  @Get()
+  list(@Query(new ZodValidationPipe(listQuerySchema)) q: z.output<typeof listQuerySchema>) {
+    return this.batches.list(q);
+  }
+
+  /** The bench's batch in progress, so a reloaded bench screen picks it up again. */
+  @Get('current')
+  current(
+    @Query(new ZodValidationPipe(currentQuerySchema)) q: z.output<typeof currentQuerySchema>,
+  ): { batch: Batch | null } {
+    return { batch: this.batches.current(q.benchId) };
+  }
+
+  @Get(':id')
+  get(@Param('id', batchId) id: number): Promise<Batch> {
+    return this.batches.get(id);
+  }
+
+  @Post()
+  create(
+    @Body(new ZodValidationPipe(createBatchSchema, 'The batch cannot start'))
+    body: z.output<typeof createBatchSchema>,
+    @CurrentUser() user: AuthUser,
+  ): Promise<Batch> {
+    return this.batches.create(body, user);
+  }
+
+  @Post(':id/tare')
+  tare(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
+    return this.batches.tare(id, user);
+  }
+
+  @Post(':id/next')
+  next(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
+    return this.batches.next(id, user);
+  }
+
+  @Post(':id/rescue')
+  rescue(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
+    return this.batches.rescue(id, user);
+  }
+
+  @Post(':id/save-no-go')
+  saveNoGo(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
+    return this.batches.saveNoGo(id, user);
+  }
+
+  @Post(':id/abandon')
+  abandon(
+    @Param('id', batchId) id: number,
+    @Body(new ZodValidationPipe(abandonBatchSchema)) body: z.output<typeof abandonBatchSchema>,
+    @CurrentUser() user: AuthUser,
+  ): Promise<Batch> {
+    return this.batches.abandon(id, body.reason, user);
+  }
+
+  @Post(':id/resume')
+  resume(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
+    return this.batches.resume(id, user);
+  }
+}
