@@ -1,4 +1,14 @@
-import { Body, Controller, Get, Inject, Param, ParseIntPipe, Post, Query } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  Inject,
+  Param,
+  ParseIntPipe,
+  Post,
+  Query,
+  UseFilters,
+} from '@nestjs/common';
 import {
   abandonBatchSchema,
   batchStateSchema,
@@ -10,6 +20,7 @@ import { Roles } from '../auth/access.decorator.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { BatchRefusalFilter } from './batch-refusal.filter.js';
 import { BatchesService } from './batches.service.js';
 
 const listQuerySchema = z.object({
@@ -27,6 +38,7 @@ const batchId = new ParseIntPipe({
 /** Thin: every rule lives in BatchesService and the batch state machine. */
 @Controller('batches')
 @Roles('operator', 'lead', 'admin')
+@UseFilters(BatchRefusalFilter)
 export class BatchesController {
   constructor(@Inject(BatchesService) private readonly batches: BatchesService) {}
 
