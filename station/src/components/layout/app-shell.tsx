@@ -4,6 +4,7 @@ import { HubStatus } from '../../features/health/components/hub-status';
 const areas = [
   { to: '/bench', label: 'Bench' },
   { to: '/review', label: 'Review' },
+  { to: '/plan', label: 'Pour planner' },
 ];
 
 /** Header with the two areas of the product and the hub indicator; pages render below it. */
