@@ -2,4 +2,4 @@ export * from './health.js';
 export * from './errors.js';
 export * from './roles.js';
 export * from './live.js';
-export * from './scale/types.js';
+export * from './scale/index.js';
