@@ -1,11 +1,25 @@
 #!/usr/bin/env node
 import { readFile } from 'node:fs/promises';
-import { fieldErrors, simulatorScriptSchema, type SimulatorStep } from '@tareline/protocol';
+import {
+  fieldErrors,
+  getCodec,
+  simulatorScriptSchema,
+  type EncodableReading,
+  type SimulatorStep,
+} from '@tareline/protocol';
 import { attachKeys } from './console-keys.js';
 import { SimulatedScale, SimulatorStoppedError } from './simulated-scale.js';
 import { openPty } from './transports/pty-link.js';
 import { serveTcp } from './transports/tcp-adapter.js';
 import { parseArgs, usage, type CliOptions } from './usage.js';
+
+const SAMPLE_READING: EncodableReading = {
+  grams: 1234.56,
+  stable: true,
+  mode: 'gross',
+  unit: 'g',
+  decimals: 2,
+};
 
 async function loadScript(file: string): Promise<SimulatorStep[]> {
   let json: unknown;
@@ -35,8 +49,27 @@ async function run(options: CliOptions): Promise<void> {
   );
 
   const closers: Array<() => Promise<void> | void> = [];
+  let quitting = false;
+  // A Ctrl-C reaches socat too, so errors while shutting down are expected and not reported.
+  const report = (error: Error) => {
+    if (!quitting) process.stderr.write(`${error.message}\n`);
+  };
+  if (options.pty && scale.options.continuous) {
+    // A pty moves bytes at any speed; a real cable at `baud` carries ten bits a character (8N1).
+    const lineChars = getCodec(format).encode(SAMPLE_READING).length + 2;
+    const linesPerS = options.baud / (10 * lineChars);
+    if (rateHz > linesPerS) {
+      say(
+        `note: at ${options.baud} baud a real cable carries only ${Math.floor(linesPerS)} such lines/s`,
+      );
+    }
+  }
   if (options.pty) {
-    const link = await openPty(scale, { path: options.ptyLink, baud: options.baud });
+    const link = await openPty(scale, {
+      path: options.ptyLink,
+      baud: options.baud,
+      onError: report,
+    });
     closers.push(() => link.close());
     say(`pty: ${link.path}`);
     say(`hub: TARELINE_SCALE=serial://${link.path}?baud=${options.baud}&format=${format}`);
@@ -50,7 +83,6 @@ async function run(options: CliOptions): Promise<void> {
     scale.onLine((line) => process.stdout.write(`${line}\n`));
   }
 
-  let quitting = false;
   const quit = async (code = 0) => {
     if (quitting) return;
     quitting = true;
