@@ -3,3 +3,4 @@ export * from './errors.js';
 export * from './roles.js';
 export * from './live.js';
 export * from './scale/types.js';
+export * from './auth.js';
