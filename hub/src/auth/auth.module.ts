@@ -31,6 +31,8 @@ import { TokenService } from './token.service.js';
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => ({
         throttlers: [{ name: 'sign-in', ttl: 60_000, limit: config.auth.signInPerMinute }],
+        // One budget per address across both sign-in routes, not one per route.
+        generateKey: (_context, tracker, name) => `${name}:${tracker}`,
         errorMessage: 'Too many sign-in attempts from this device: wait a minute and try again',
       }),
     }),
