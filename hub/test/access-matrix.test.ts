@@ -106,7 +106,10 @@ describe('authorization matrix: every registered route against every kind of cal
         const ok = allowed
           ? answer.status !== 401 && answer.status !== 403 && answer.status < 500
           : answer.status === refusal;
-        if (!ok) wrong.push(`${route} as ${caller}: ${answer.status} (${allowed ? 'allowed' : 'refused'} expected)`);
+        if (!ok)
+          wrong.push(
+            `${route} as ${caller}: ${answer.status} (${allowed ? 'allowed' : 'refused'} expected)`,
+          );
       }
     }
     expect(wrong).toEqual([]);

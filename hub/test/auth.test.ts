@@ -40,9 +40,14 @@ describe('sign-in, on a hub with the demo shop', () => {
       pinRequired: false,
       idleSignOutMin: 5,
     });
-    const me = await call<{ user: { name: string }; bench?: { id: string } }>(hub, 'GET', '/api/me', {
-      token: answer.body.token,
-    });
+    const me = await call<{ user: { name: string }; bench?: { id: string } }>(
+      hub,
+      'GET',
+      '/api/me',
+      {
+        token: answer.body.token,
+      },
+    );
     expect(me.status).toBe(200);
     expect(me.body.user.name).toBe('Joss Whitcombe');
     expect(me.body.bench?.id).toBe('bench-1');
@@ -264,7 +269,9 @@ describe('first start without the demo shop', () => {
       const people = await call<{ name: string; role: string }[]>(hub, 'GET', '/api/people', {
         token,
       });
-      expect(people.body).toEqual([expect.objectContaining({ name: 'Administrator', role: 'admin' })]);
+      expect(people.body).toEqual([
+        expect.objectContaining({ name: 'Administrator', role: 'admin' }),
+      ]);
     } finally {
       await hub.close();
       await data.remove();

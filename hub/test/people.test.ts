@@ -20,12 +20,10 @@ describe('people routes (admins)', () => {
   });
 
   const asAdmin = <T = Person>(method: string, path: string, body?: unknown) =>
-    call<T & { message: string; errors: { path: string; message: string }[] }>(
-      hub,
-      method,
-      path,
-      { token: admin, body },
-    );
+    call<T & { message: string; errors: { path: string; message: string }[] }>(hub, method, path, {
+      token: admin,
+      body,
+    });
 
   it('lists the demo shop with what each person has, never the secrets', async () => {
     const answer = await asAdmin<Person[]>('GET', '/api/people');
@@ -87,7 +85,9 @@ describe('people routes (admins)', () => {
     const joss = (await asAdmin<Person[]>('GET', '/api/people')).body.find(
       (p) => p.name === 'Joss Whitcombe',
     )!;
-    expect((await asAdmin('PUT', `/api/people/${joss.id}/badge`, { badge: 'HR-2003' })).status).toBe(200);
+    expect(
+      (await asAdmin('PUT', `/api/people/${joss.id}/badge`, { badge: 'HR-2003' })).status,
+    ).toBe(200);
     expect((await badgeSignIn(hub, 'HR-2003')).status).toBe(200);
     expect((await badgeSignIn(hub, DEMO.joss.badge)).status).toBe(401);
     await asAdmin('PUT', `/api/people/${joss.id}/badge`, { badge: DEMO.joss.badge });

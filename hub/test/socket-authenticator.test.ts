@@ -77,13 +77,19 @@ describe('live socket authenticator (SOCKET_AUTHENTICATOR)', () => {
   });
 
   it('says to disconnect once the token has run out', async () => {
-    const principal = await sockets.authenticate({ token: await operatorToken(), benchId: 'bench-1' });
+    const principal = await sockets.authenticate({
+      token: await operatorToken(),
+      benchId: 'bench-1',
+    });
     vi.spyOn(clock, 'now').mockReturnValue(principal.expiresAt + 1);
     expect(await sockets.stillValid(principal)).toBe(false);
   });
 
   it('says to disconnect once the person is deactivated', async () => {
-    const principal = await sockets.authenticate({ token: await operatorToken(), benchId: 'bench-1' });
+    const principal = await sockets.authenticate({
+      token: await operatorToken(),
+      benchId: 'bench-1',
+    });
     const people = hub.app.get(PeopleRepository);
     await people.update(principal.userId, { active: false });
     try {

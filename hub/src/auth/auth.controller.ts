@@ -32,7 +32,9 @@ export class AuthController {
   @HttpCode(200)
   @Public()
   @UseGuards(ThrottlerGuard)
-  login(@Body(new ZodValidationPipe(loginRequestSchema)) body: LoginRequest): Promise<SignInResponse> {
+  login(
+    @Body(new ZodValidationPipe(loginRequestSchema)) body: LoginRequest,
+  ): Promise<SignInResponse> {
     return this.signIn.login(body);
   }
 

@@ -38,7 +38,14 @@ export class CredentialHasher {
       r: SCRYPT.r,
       p: SCRYPT.p,
     });
-    return ['scrypt', SCRYPT.N, SCRYPT.r, SCRYPT.p, salt.toString('base64url'), key.toString('base64url')].join('$');
+    return [
+      'scrypt',
+      SCRYPT.N,
+      SCRYPT.r,
+      SCRYPT.p,
+      salt.toString('base64url'),
+      key.toString('base64url'),
+    ].join('$');
   }
 
   /**
@@ -49,7 +56,14 @@ export class CredentialHasher {
     const stored = hash ?? (await this.dummyHash);
     const parts = stored.split('$');
     if (parts.length !== 6 || parts[0] !== 'scrypt') return false;
-    const [, n, r, p, saltText, keyText] = parts as [string, string, string, string, string, string];
+    const [, n, r, p, saltText, keyText] = parts as [
+      string,
+      string,
+      string,
+      string,
+      string,
+      string,
+    ];
     const expected = Buffer.from(keyText, 'base64url');
     const actual = await scryptAsync(secret, Buffer.from(saltText, 'base64url'), expected.length, {
       N: Number(n),

@@ -56,7 +56,8 @@ export class SignInService {
     }
     const badgeHash = this.hasher.badgeHash(request.badge);
     const lockedUntil = await this.signIns.lockedUntil(badgeHash);
-    if (lockedUntil && lockedUntil.getTime() > this.clock.now()) throw lockedError(lockedUntil, this.clock.now());
+    if (lockedUntil && lockedUntil.getTime() > this.clock.now())
+      throw lockedError(lockedUntil, this.clock.now());
 
     const person = await this.people.findByBadgeHash(badgeHash);
     const needsPin = !person || bench.pinRequired || person.pinHash !== null;

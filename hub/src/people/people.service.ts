@@ -2,11 +2,7 @@ import { ConflictException, Inject, Injectable, NotFoundException } from '@nestj
 import type { ApiError, Person, Role } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CredentialHasher } from '../auth/credential-hasher.js';
-import {
-  PeopleRepository,
-  type NewPersonRow,
-  type PersonRow,
-} from '../auth/people.repository.js';
+import { PeopleRepository, type NewPersonRow, type PersonRow } from '../auth/people.repository.js';
 
 export interface NewPerson {
   name: string;

@@ -35,7 +35,8 @@ export function AppShell() {
           {session && (
             <div className="flex items-center gap-3" aria-label="Signed in">
               <span className="text-lg font-semibold">
-                {session.user.name} <span className="font-normal opacity-80">({session.user.role})</span>
+                {session.user.name}{' '}
+                <span className="font-normal opacity-80">({session.user.role})</span>
               </span>
               {/* At a bench, "Switch person" on the bench bar does this. */}
               {!session.bench && (

@@ -123,7 +123,11 @@ describe('signed in at the bench', () => {
     expect(await screen.findByRole('heading', { name: 'Scan your badge' })).toBeInTheDocument();
     expect(screen.queryByText(/Priya Sandell/)).not.toBeInTheDocument();
     expect(requests).toEqual([
-      expect.objectContaining({ method: 'POST', path: '/auth/logout', token: 'token-of-Priya-Sandell' }),
+      expect.objectContaining({
+        method: 'POST',
+        path: '/auth/logout',
+        token: 'token-of-Priya-Sandell',
+      }),
     ]);
   });
 

@@ -52,7 +52,10 @@ export function BenchSignIn({ benchId }: { benchId: string }) {
   };
 
   return (
-    <section aria-labelledby="bench-sign-in-title" className="mx-auto flex max-w-xl flex-col items-center gap-6 py-6 text-center">
+    <section
+      aria-labelledby="bench-sign-in-title"
+      className="mx-auto flex max-w-xl flex-col items-center gap-6 py-6 text-center"
+    >
       <h1 id="bench-sign-in-title" className="text-4xl font-bold">
         {badge === null ? 'Scan your badge' : 'Enter your PIN'}
       </h1>

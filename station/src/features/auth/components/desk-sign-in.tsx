@@ -42,7 +42,13 @@ export function DeskSignIn() {
           </p>
         )}
         <Field label="E-mail" error={errors.email?.message} id="login-email">
-          <input id="login-email" type="email" autoComplete="username" className={inputClass} {...form.register('email')} />
+          <input
+            id="login-email"
+            type="email"
+            autoComplete="username"
+            className={inputClass}
+            {...form.register('email')}
+          />
         </Field>
         <Field label="Password" error={errors.password?.message} id="login-password">
           <input

@@ -9,7 +9,7 @@ import { renderRoutes } from '../../../testing/render';
 
 function person(p: Partial<Person> & { name: string }): Person {
   return {
-    id: `id-${p.name.replace(/\s/g, "-")}`,
+    id: `id-${p.name.replace(/\s/g, '-')}`,
     role: 'operator',
     active: true,
     email: null,
@@ -54,7 +54,8 @@ describe('people page', () => {
       },
       [`PATCH /people/id-Joss-Whitcombe`]: ({ body }) =>
         change('id-Joss-Whitcombe', body as Partial<Person>),
-      [`PUT /people/id-Joss-Whitcombe/badge`]: () => change('id-Joss-Whitcombe', { hasBadge: true }),
+      [`PUT /people/id-Joss-Whitcombe/badge`]: () =>
+        change('id-Joss-Whitcombe', { hasBadge: true }),
       [`PUT /people/id-Joss-Whitcombe/pin`]: ({ body }) =>
         change('id-Joss-Whitcombe', { hasPin: (body as { pin: string | null }).pin !== null }),
     });
@@ -113,7 +114,9 @@ describe('people page', () => {
     await userEvent.click(await screen.findByRole('button', { name: 'Manage Joss Whitcombe' }));
     const panel = screen.getByRole('region', { name: 'Manage Joss Whitcombe' });
     await userEvent.click(within(panel).getByRole('button', { name: 'Deactivate' }));
-    expect(await within(panel).findByRole('status')).toHaveTextContent('Joss Whitcombe is deactivated');
+    expect(await within(panel).findByRole('status')).toHaveTextContent(
+      'Joss Whitcombe is deactivated',
+    );
     expect(await screen.findByRole('cell', { name: 'deactivated' })).toBeInTheDocument();
 
     await userEvent.selectOptions(within(panel).getByLabelText('Role'), 'lead');

@@ -130,9 +130,18 @@ function AddPersonForm({ onDone }: { onDone: () => void }) {
       className="grid grid-cols-1 gap-4 rounded-xl bg-panel p-5 shadow-sm md:grid-cols-2"
     >
       <h2 className="text-2xl font-bold md:col-span-2">Add person</h2>
-      {errors.root && <p role="alert" className="font-semibold text-over md:col-span-2">{errors.root.message}</p>}
+      {errors.root && (
+        <p role="alert" className="font-semibold text-over md:col-span-2">
+          {errors.root.message}
+        </p>
+      )}
       <Field id="new-name" label="Name" error={errors.name?.message}>
-        <input id="new-name" className={inputClass} aria-invalid={!!errors.name} {...form.register('name')} />
+        <input
+          id="new-name"
+          className={inputClass}
+          aria-invalid={!!errors.name}
+          {...form.register('name')}
+        />
       </Field>
       <Field id="new-role" label="Role" error={errors.role?.message}>
         <select id="new-role" className={inputClass} {...form.register('role')}>
@@ -144,7 +153,13 @@ function AddPersonForm({ onDone }: { onDone: () => void }) {
         </select>
       </Field>
       <Field id="new-email" label="E-mail (leads and admins)" error={errors.email?.message}>
-        <input id="new-email" type="email" className={inputClass} aria-invalid={!!errors.email} {...form.register('email')} />
+        <input
+          id="new-email"
+          type="email"
+          className={inputClass}
+          aria-invalid={!!errors.email}
+          {...form.register('email')}
+        />
       </Field>
       <Field id="new-password" label="Password (leads and admins)" error={errors.password?.message}>
         <input
@@ -157,7 +172,13 @@ function AddPersonForm({ onDone }: { onDone: () => void }) {
         />
       </Field>
       <Field id="new-badge" label="Badge code" error={errors.badge?.message}>
-        <input id="new-badge" autoComplete="off" className={inputClass} aria-invalid={!!errors.badge} {...form.register('badge')} />
+        <input
+          id="new-badge"
+          autoComplete="off"
+          className={inputClass}
+          aria-invalid={!!errors.badge}
+          {...form.register('badge')}
+        />
       </Field>
       <Field id="new-pin" label="PIN (optional, 4 to 8 digits)" error={errors.pin?.message}>
         <input
@@ -221,13 +242,33 @@ function ManagePerson({ person, onClose }: { person: Person; onClose: () => void
         </button>
       </div>
       {notice && <p role="status">{notice}</p>}
-      <form noValidate aria-label="Edit person" onSubmit={save} className="grid grid-cols-1 gap-4 md:grid-cols-3">
-        {errors.root && <p role="alert" className="font-semibold text-over md:col-span-3">{errors.root.message}</p>}
+      <form
+        noValidate
+        aria-label="Edit person"
+        onSubmit={save}
+        className="grid grid-cols-1 gap-4 md:grid-cols-3"
+      >
+        {errors.root && (
+          <p role="alert" className="font-semibold text-over md:col-span-3">
+            {errors.root.message}
+          </p>
+        )}
         <Field id="edit-name" label="Name" error={errors.name?.message}>
-          <input id="edit-name" className={inputClass} aria-invalid={!!errors.name} {...form.register('name')} />
+          <input
+            id="edit-name"
+            className={inputClass}
+            aria-invalid={!!errors.name}
+            {...form.register('name')}
+          />
         </Field>
         <Field id="edit-email" label="E-mail" error={errors.email?.message}>
-          <input id="edit-email" type="email" className={inputClass} aria-invalid={!!errors.email} {...form.register('email')} />
+          <input
+            id="edit-email"
+            type="email"
+            className={inputClass}
+            aria-invalid={!!errors.email}
+            {...form.register('email')}
+          />
         </Field>
         <Field id="edit-role" label="Role" error={errors.role?.message}>
           <select id="edit-role" className={inputClass} {...form.register('role')}>
@@ -249,11 +290,7 @@ function ManagePerson({ person, onClose }: { person: Person; onClose: () => void
       </form>
       <div className="grid grid-cols-1 gap-6 md:grid-cols-3">
         <AssignBadge person={person} onDone={setNotice} />
-        <SecretReset
-          person={person}
-          kind="pin"
-          onDone={setNotice}
-        />
+        <SecretReset person={person} kind="pin" onDone={setNotice} />
         <SecretReset person={person} kind="password" onDone={setNotice} />
       </div>
     </section>
@@ -301,7 +338,13 @@ function AssignBadge({ person, onDone }: { person: Person; onDone: (m: string) =
             <label htmlFor="assign-badge" className="sr-only">
               Badge code to assign
             </label>
-            <input id="assign-badge" autoComplete="off" className={inputClass} value={typed} onChange={(e) => setTyped(e.target.value)} />
+            <input
+              id="assign-badge"
+              autoComplete="off"
+              className={inputClass}
+              value={typed}
+              onChange={(e) => setTyped(e.target.value)}
+            />
             <button type="submit" className={primary}>
               Assign
             </button>

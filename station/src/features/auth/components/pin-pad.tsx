@@ -40,7 +40,11 @@ export function PinPad({ onSubmit, onCancel, busy = false }: PinPadProps) {
         {pin.length === 0 ? (
           <span className="text-lg text-muted">Enter your PIN</span>
         ) : (
-          Array.from(pin, (_, i) => <span key={i} aria-hidden="true">●</span>)
+          Array.from(pin, (_, i) => (
+            <span key={i} aria-hidden="true">
+              ●
+            </span>
+          ))
         )}
         <span className="sr-only">{pin.length} digits</span>
       </output>

@@ -11,7 +11,9 @@ export function RequireRole({ roles, children }: { roles: readonly Role[]; child
   const session = useSession();
   const location = useLocation();
   if (!session) {
-    return <Navigate to="/login" replace state={{ from: `${location.pathname}${location.search}` }} />;
+    return (
+      <Navigate to="/login" replace state={{ from: `${location.pathname}${location.search}` }} />
+    );
   }
   if (!hasRole(session, roles)) {
     return (

@@ -8,7 +8,10 @@ function isTextField(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
   if (target.isContentEditable) return true;
   if (target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement) return true;
-  return target instanceof HTMLInputElement && !['button', 'checkbox', 'radio', 'submit'].includes(target.type);
+  return (
+    target instanceof HTMLInputElement &&
+    !['button', 'checkbox', 'radio', 'submit'].includes(target.type)
+  );
 }
 
 /**
@@ -18,7 +21,9 @@ function isTextField(target: EventTarget | null): boolean {
  */
 export function useBadgeScanner(onScan: (code: string) => void, enabled = true): void {
   const onScanRef = useRef(onScan);
-  onScanRef.current = onScan;
+  useEffect(() => {
+    onScanRef.current = onScan;
+  });
 
   useEffect(() => {
     if (!enabled) return;

@@ -13,7 +13,9 @@ export function useIdleCountdown(
 ): number | null {
   const [secondsLeft, setSecondsLeft] = useState<number | null>(null);
   const onIdleRef = useRef(onIdle);
-  onIdleRef.current = onIdle;
+  useEffect(() => {
+    onIdleRef.current = onIdle;
+  });
 
   useEffect(() => {
     const limitMs = idleMinutes * 60_000;
