@@ -37,5 +37,6 @@ describe('demo shop seeding', () => {
     } finally {
       await second.close();
     }
-  });
+    // Two real starts of the hub, the first one migrating a new database.
+  }, 90_000);
 });
