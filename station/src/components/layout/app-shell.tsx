@@ -1,6 +1,7 @@
 import { NavLink, Outlet } from 'react-router-dom';
 import { HubStatus } from '../../features/health/components/hub-status';
 import { useSession } from '../../lib/auth';
+import { useSessionCheck } from '../../lib/session-check';
 import { useSignOut } from '../../lib/sign-out';
 
 const areas = [
@@ -12,6 +13,7 @@ const areas = [
 export function AppShell() {
   const session = useSession();
   const signOut = useSignOut();
+  useSessionCheck();
   return (
     <div className="flex min-h-screen flex-col">
       <header className="flex items-center justify-between gap-6 bg-steel px-6 py-3 text-paper">

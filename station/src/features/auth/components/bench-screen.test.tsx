@@ -156,3 +156,18 @@ describe('signed in at the bench', () => {
     expect(screen.queryByText(/Tomas Reyl/)).not.toBeInTheDocument();
   });
 });
+
+describe('a bench session the hub no longer accepts', () => {
+  it('goes back to sign-in when the hub says the session has ended', async () => {
+    stubHub({
+      'GET /me': () => [
+        401,
+        { message: 'Your sign-in has been switched off: ask an admin', errors: [] },
+      ],
+    });
+    setSession(signInAnswer({ name: 'Priya Sandell', role: 'operator' }, { id: 'bench-1' }));
+    renderRoutes(routes, '/bench');
+    expect(await screen.findByRole('heading', { name: 'Scan your badge' })).toBeInTheDocument();
+    expect(screen.queryByText(/Priya Sandell/)).not.toBeInTheDocument();
+  });
+});
