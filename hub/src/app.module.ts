@@ -1,11 +1,14 @@
 import { DynamicModule, Module } from '@nestjs/common';
 import { ServeStaticModule } from '@nestjs/serve-static';
 import type { AppConfig } from './config/app-config.js';
+import { AuthModule } from './auth/auth.module.js';
 import { ConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
+import { DemoModule } from './demo/demo.module.js';
 import { HealthModule } from './health/health.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
 import { PlanModule } from './plan/plan.module.js';
+import { PeopleModule } from './people/people.module.js';
 
 @Module({})
 export class AppModule {
@@ -15,9 +18,12 @@ export class AppModule {
       imports: [
         ConfigModule.forRoot(config),
         DatabaseModule,
+        AuthModule,
         HealthModule,
         MaterialsModule,
         PlanModule,
+        PeopleModule,
+        DemoModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({
           rootPath: config.paths.station,

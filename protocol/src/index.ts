@@ -6,3 +6,4 @@ export * from './scale/index.js';
 export * from './mix/index.js';
 export * from './materials.js';
 export * from './batches.js';
+export * from './auth.js';

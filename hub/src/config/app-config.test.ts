@@ -35,3 +35,43 @@ describe('loadConfig', () => {
     expect(loadConfig({ PORT: '' }).http.port).toBe(3000);
   });
 });
+
+describe('loadConfig, sign-in settings', () => {
+  it('defaults to demo people, 12-hour sessions and generated secrets', () => {
+    const config = loadConfig({});
+    expect(config.demo.enabled).toBe(true);
+    expect(config.auth.sessionHours).toBe(12);
+    expect(config.auth.jwtSecret).toBeUndefined();
+    expect(config.auth.firstAdmin).toBeUndefined();
+  });
+
+  it('never repeats a secret in its error message', () => {
+    let error: unknown;
+    try {
+      loadConfig({ TARELINE_JWT_SECRET: 'short-secret', TARELINE_ADMIN_PASSWORD: 'tiny' });
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(ConfigError);
+    const { message } = error as ConfigError;
+    expect(message).toContain('TARELINE_JWT_SECRET=(hidden)');
+    expect(message).not.toContain('short-secret');
+    expect(message).not.toContain('tiny');
+  });
+
+  it('wants the first admin e-mail and password together', () => {
+    expect(() => loadConfig({ TARELINE_ADMIN_EMAIL: 'boss@example.test' })).toThrow(
+      /set both to create the first admin/,
+    );
+    const config = loadConfig({
+      TARELINE_ADMIN_EMAIL: 'Boss@Example.test',
+      TARELINE_ADMIN_PASSWORD: 'long enough password',
+      TARELINE_DEMO: '0',
+    });
+    expect(config.auth.firstAdmin).toEqual({
+      email: 'boss@example.test',
+      password: 'long enough password',
+    });
+    expect(config.demo.enabled).toBe(false);
+  });
+});

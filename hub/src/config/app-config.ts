@@ -20,6 +20,18 @@ export interface AppConfig {
   log: { level: LogLevel };
   paths: { migrations: string; station: string };
   batches: { saveDwellMs: number };
+  auth: {
+    /** Signing secret of session tokens; undefined: generated once and kept in the data folder. */
+    jwtSecret: string | undefined;
+    /** Key of the badge-code hash; undefined: generated once and kept in the data folder. */
+    badgeKey: string | undefined;
+    sessionHours: number;
+    /** Sign-in attempts allowed per minute from one address. */
+    signInPerMinute: number;
+    /** Created on an empty database when both are set. */
+    firstAdmin: { email: string; password: string } | undefined;
+  };
+  demo: { enabled: boolean };
 }
 
 const portSchema = z.coerce
@@ -46,7 +58,28 @@ const envSchema = z.object({
     .min(200, 'must be at least 200 ms')
     .max(30_000, 'must be at most 30000 ms')
     .default(1500),
+  TARELINE_JWT_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  TARELINE_BADGE_KEY: z.string().min(32, 'must be at least 32 characters').optional(),
+  TARELINE_SESSION_HOURS: z.coerce
+    .number({ error: 'must be a number' })
+    .positive('must be more than 0')
+    .max(24 * 30, 'must be at most 720 (30 days)')
+    .default(12),
+  TARELINE_SIGN_IN_LIMIT: z.coerce
+    .number({ error: 'must be a number' })
+    .int('must be a whole number')
+    .min(1, 'must be at least 1')
+    .default(30),
+  TARELINE_ADMIN_EMAIL: z.email('must be an e-mail address').optional(),
+  TARELINE_ADMIN_PASSWORD: z.string().min(10, 'must be at least 10 characters').optional(),
+  TARELINE_DEMO: z.enum(['0', '1'], { error: 'must be 0 or 1' }).default('1'),
 });
+
+const SECRET_VARIABLES = new Set([
+  'TARELINE_JWT_SECRET',
+  'TARELINE_BADGE_KEY',
+  'TARELINE_ADMIN_PASSWORD',
+]);
 
 /** Every bad environment variable at once, so a start-up fails with one message to fix them all. */
 export class ConfigError extends Error {
@@ -78,7 +111,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     throw new ConfigError(
       result.error.issues.map((issue) => {
         const name = String(issue.path[0]);
-        return `${name}=${JSON.stringify(env[name] ?? '')}: ${issue.message}`;
+        // A secret's value is never echoed, not even a wrong one.
+        const shown = SECRET_VARIABLES.has(name) ? '(hidden)' : JSON.stringify(env[name] ?? '');
+        return `${name}=${shown}: ${issue.message}`;
       }),
     );
   }
@@ -86,6 +121,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   if (e.DATABASE_URL) {
     throw new ConfigError([
       'DATABASE_URL: a server PostgreSQL is not supported yet; unset it to use the embedded database',
+    ]);
+  }
+  if (Boolean(e.TARELINE_ADMIN_EMAIL) !== Boolean(e.TARELINE_ADMIN_PASSWORD)) {
+    throw new ConfigError([
+      'TARELINE_ADMIN_EMAIL and TARELINE_ADMIN_PASSWORD: set both to create the first admin, or neither',
     ]);
   }
   return {
@@ -101,5 +141,16 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
         : resolve(hubRoot, '..', 'station', 'dist'),
     },
     batches: { saveDwellMs: e.TARELINE_SAVE_DWELL_MS },
+    auth: {
+      jwtSecret: e.TARELINE_JWT_SECRET,
+      badgeKey: e.TARELINE_BADGE_KEY,
+      sessionHours: e.TARELINE_SESSION_HOURS,
+      signInPerMinute: e.TARELINE_SIGN_IN_LIMIT,
+      firstAdmin:
+        e.TARELINE_ADMIN_EMAIL && e.TARELINE_ADMIN_PASSWORD
+          ? { email: e.TARELINE_ADMIN_EMAIL.toLowerCase(), password: e.TARELINE_ADMIN_PASSWORD }
+          : undefined,
+    },
+    demo: { enabled: e.TARELINE_DEMO === '1' },
   };
 }

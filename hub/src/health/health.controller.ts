@@ -1,5 +1,6 @@
 import { Controller, Get, Inject } from '@nestjs/common';
 import type { HealthResponse } from '@tareline/protocol';
+import { Public } from '../auth/access.decorator.js';
 import { HealthService } from './health.service.js';
 
 @Controller('health')
@@ -7,6 +8,7 @@ export class HealthController {
   constructor(@Inject(HealthService) private readonly health: HealthService) {}
 
   @Get()
+  @Public()
   check(): Promise<HealthResponse> {
     return this.health.check();
   }

@@ -1,6 +1,9 @@
 import { Navigate, type RouteObject } from 'react-router-dom';
 import { AppShell } from '../components/layout/app-shell';
-import { BenchRoute } from './routes/bench';
+import { DeskSignIn } from '../features/auth/components/desk-sign-in';
+import { PeoplePage } from '../features/auth/components/people-page';
+import { RequireRole } from '../features/auth/components/require-role';
+import { BenchHomeRoute, BenchRoute } from './routes/bench';
 import { NotFoundRoute } from './routes/not-found';
 import { PlanRoute } from './routes/plan';
 import { ReviewRoute } from './routes/review';
@@ -10,8 +13,28 @@ export const routes: RouteObject[] = [
     element: <AppShell />,
     children: [
       { index: true, element: <Navigate to="/bench" replace /> },
-      { path: 'bench', element: <BenchRoute /> },
-      { path: 'review', element: <ReviewRoute /> },
+      {
+        path: 'bench',
+        element: <BenchRoute />,
+        children: [{ index: true, element: <BenchHomeRoute /> }],
+      },
+      { path: 'login', element: <DeskSignIn /> },
+      {
+        path: 'review',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <ReviewRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'review/people',
+        element: (
+          <RequireRole roles={['admin']}>
+            <PeoplePage />
+          </RequireRole>
+        ),
+      },
       { path: 'plan', element: <PlanRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],

@@ -1,5 +1,6 @@
 import { apiErrorSchema, type ApiError } from '@tareline/protocol';
 import type { z } from 'zod';
+import { getToken, setSession } from './auth';
 
 /** A refused or failed call to the hub, with the hub's own message and bad fields. */
 export class ApiRequestError extends Error {
@@ -22,12 +23,14 @@ export async function apiRequest<S extends z.ZodType>(
   init: RequestInit = {},
 ): Promise<z.infer<S>> {
   let response: Response;
+  const token = getToken();
   try {
     response = await fetch(`/api${path}`, {
       ...init,
       headers: {
         Accept: 'application/json',
         ...(init.body ? { 'Content-Type': 'application/json' } : {}),
+        ...(token ? { Authorization: `Bearer ${token}` } : {}),
         ...init.headers,
       },
     });
@@ -36,6 +39,8 @@ export async function apiRequest<S extends z.ZodType>(
   }
   const body: unknown = await response.json().catch(() => undefined);
   if (!response.ok) {
+    // The hub no longer accepts this token (signed out elsewhere, expired, switched off).
+    if (response.status === 401 && token && getToken() === token) setSession(null);
     const parsed = apiErrorSchema.safeParse(body);
     throw new ApiRequestError(
       response.status,

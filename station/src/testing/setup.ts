@@ -1,7 +1,11 @@
 import '@testing-library/jest-dom/vitest';
 import { cleanup } from '@testing-library/react';
-import { afterEach } from 'vitest';
+import { afterEach, vi } from 'vitest';
+import { setSession } from '../lib/auth';
 
 afterEach(() => {
   cleanup();
+  setSession(null);
+  localStorage.clear();
+  vi.unstubAllGlobals();
 });

@@ -2,3 +2,4 @@
 export * from './benches.js';
 export * from './materials.js';
 export * from './batches.js';
+export * from './people.js';

@@ -1,5 +1,9 @@
+import { Link } from 'react-router-dom';
+import { hasRole, useSession } from '../../lib/auth';
+
 /** The review pages: batches, materials and lots for leads. Filled in by the review work. */
 export function ReviewRoute() {
+  const session = useSession();
   return (
     <section aria-labelledby="review-title" className="mx-auto max-w-3xl">
       <h1 id="review-title" className="text-3xl font-bold">
@@ -8,6 +12,13 @@ export function ReviewRoute() {
       <p className="mt-2 text-lg text-muted">
         Batches, materials and lots for leads. These pages are being built.
       </p>
+      {hasRole(session, ['admin']) && (
+        <p className="mt-4 text-lg">
+          <Link className="underline" to="/review/people">
+            People and badges
+          </Link>
+        </p>
+      )}
     </section>
   );
 }

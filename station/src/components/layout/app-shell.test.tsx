@@ -22,7 +22,7 @@ afterEach(() => {
 });
 
 describe('app shell', () => {
-  it('shows both areas and says the hub is connected when it answers ok', async () => {
+  it('opens on the bench sign-in, shows both areas and says the hub is connected', async () => {
     answerHealth({
       status: 'ok',
       version: '0.1.0',
@@ -30,14 +30,14 @@ describe('app shell', () => {
       db: { ok: true, driver: 'pglite' },
     });
     renderRoutes(routes, '/');
-    expect(await screen.findByRole('heading', { name: 'Bench' })).toBeInTheDocument();
+    expect(await screen.findByRole('heading', { name: 'Scan your badge' })).toBeInTheDocument();
     const nav = screen.getByRole('navigation', { name: 'Areas' });
     expect(nav).toHaveTextContent('Bench');
     expect(nav).toHaveTextContent('Review');
     expect(await screen.findByText('Hub: connected')).toBeInTheDocument();
   });
 
-  it('goes to the review area when its link is pressed', async () => {
+  it('sends a signed-out visitor of the review area to the desk sign-in', async () => {
     answerHealth({
       status: 'ok',
       version: '0.1.0',
@@ -46,7 +46,7 @@ describe('app shell', () => {
     });
     renderRoutes(routes, '/bench');
     await userEvent.click(screen.getByRole('link', { name: 'Review' }));
-    expect(await screen.findByRole('heading', { name: 'Review' })).toBeInTheDocument();
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
   });
 
   it('warns when the database does not answer', async () => {

@@ -1,5 +1,8 @@
 import { NavLink, Outlet } from 'react-router-dom';
 import { HubStatus } from '../../features/health/components/hub-status';
+import { useSession } from '../../lib/auth';
+import { useSessionCheck } from '../../lib/session-check';
+import { useSignOut } from '../../lib/sign-out';
 
 const areas = [
   { to: '/bench', label: 'Bench' },
@@ -9,6 +12,9 @@ const areas = [
 
 /** Header with the two areas of the product and the hub indicator; pages render below it. */
 export function AppShell() {
+  const session = useSession();
+  const signOut = useSignOut();
+  useSessionCheck();
   return (
     <div className="flex min-h-screen flex-col">
       <header className="flex items-center justify-between gap-6 bg-steel px-6 py-3 text-paper">
@@ -28,7 +34,27 @@ export function AppShell() {
             ))}
           </nav>
         </div>
-        <HubStatus />
+        <div className="flex items-center gap-6">
+          {session && (
+            <div className="flex items-center gap-3" aria-label="Signed in">
+              <span className="text-lg font-semibold">
+                {session.user.name}{' '}
+                <span className="font-normal opacity-80">({session.user.role})</span>
+              </span>
+              {/* At a bench, "Switch person" on the bench bar does this. */}
+              {!session.bench && (
+                <button
+                  type="button"
+                  onClick={() => void signOut()}
+                  className="rounded-md px-3 py-1 font-semibold hover:bg-white/10"
+                >
+                  Sign out
+                </button>
+              )}
+            </div>
+          )}
+          <HubStatus />
+        </div>
       </header>
       <main className="flex-1 p-6">
         <Outlet />

@@ -1,0 +1,117 @@
+import type { Role } from '@tareline/protocol';
+import { ROLES } from '@tareline/protocol';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { PeopleRepository } from '../src/auth/people.repository.js';
+import { TokenService } from '../src/auth/token.service.js';
+import { call } from './support/auth-helpers.js';
+import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
+
+type Caller = 'anonymous' | Role;
+const CALLERS: readonly Caller[] = ['anonymous', ...ROLES];
+const EVERYONE_SIGNED_IN: readonly Role[] = ['operator', 'lead', 'admin'];
+
+/**
+ * Who may call each route, as the product intends it. Written out by hand on purpose: a route the
+ * hub registers that is missing here fails the suite, so every new route gets a conscious decision.
+ */
+const EXPECTED: Record<string, 'public' | readonly Role[]> = {
+  'GET /api/health': 'public',
+  'POST /api/auth/badge': 'public',
+  'POST /api/auth/login': 'public',
+  'GET /api/me': EVERYONE_SIGNED_IN,
+  'POST /api/auth/logout': EVERYONE_SIGNED_IN,
+  'GET /api/people': ['admin'],
+  'POST /api/people': ['admin'],
+  'PATCH /api/people/:id': ['admin'],
+  'PUT /api/people/:id/badge': ['admin'],
+  'PUT /api/people/:id/pin': ['admin'],
+  'PUT /api/people/:id/password': ['admin'],
+};
+
+interface ExpressLayer {
+  route?: { path: string; methods: Record<string, boolean> };
+}
+
+/** Every route the running Nest app registered with Express, as "METHOD /path". */
+function registeredRoutes(hub: TestHub): string[] {
+  const express = hub.app.getHttpAdapter().getInstance() as { router: { stack: ExpressLayer[] } };
+  const routes = new Set<string>();
+  for (const layer of express.router.stack) {
+    if (!layer.route) continue;
+    for (const [method, on] of Object.entries(layer.route.methods)) {
+      if (on && method !== '_all') routes.add(`${method.toUpperCase()} ${layer.route.path}`);
+    }
+  }
+  return [...routes].sort();
+}
+
+describe('authorization matrix: every registered route against every kind of caller', () => {
+  let hub: TestHub;
+  let data: Awaited<ReturnType<typeof tempDataDir>>;
+  let routes: string[];
+  let personIdByRole: Record<Role, string>;
+
+  beforeAll(async () => {
+    data = await tempDataDir();
+    hub = await startTestHub(data.dir, { TARELINE_SIGN_IN_LIMIT: '1000' });
+    routes = registeredRoutes(hub).filter((r) => r.split(' ')[1]!.startsWith('/api/'));
+    const people = await hub.app.get(PeopleRepository).list();
+    personIdByRole = Object.fromEntries(
+      ROLES.map((role) => [role, people.find((p) => p.role === role)!.id]),
+    ) as Record<Role, string>;
+  });
+
+  afterAll(async () => {
+    await hub?.close();
+    await data?.remove();
+  });
+
+  /** A fresh token per call: probing sign-out must not spoil the next probe. */
+  async function tokenFor(caller: Caller): Promise<string | undefined> {
+    if (caller === 'anonymous') return undefined;
+    const { token } = await hub.app
+      .get(TokenService)
+      .issue({ id: personIdByRole[caller], role: caller }, 'bench-1');
+    return token;
+  }
+
+  it('finds the routes the hub serves (the discovery itself works)', () => {
+    expect(routes).toContain('GET /api/health');
+    expect(routes).toContain('POST /api/auth/badge');
+    expect(routes.length).toBeGreaterThanOrEqual(Object.keys(EXPECTED).length);
+  });
+
+  it('has a declared expectation for every registered route, and no stale ones', () => {
+    const undeclared = routes.filter((r) => !(r in EXPECTED));
+    const stale = Object.keys(EXPECTED).filter((r) => !routes.includes(r));
+    expect(undeclared, 'routes without an entry in EXPECTED').toEqual([]);
+    expect(stale, 'entries in EXPECTED the hub no longer serves').toEqual([]);
+  });
+
+  it('lets in exactly the callers each route declares, and refuses the rest', async () => {
+    const wrong: string[] = [];
+    for (const route of routes) {
+      const [method, pattern] = route.split(' ') as [string, string];
+      // Route parameters get a value that names nothing; access is decided before lookup.
+      const path = pattern.replace(/:(\w+)/g, 'no-such-$1');
+      const expected = EXPECTED[route];
+      for (const caller of CALLERS) {
+        const answer = await call(hub, method, path, {
+          token: await tokenFor(caller),
+          ...(method === 'GET' ? {} : { body: {} }),
+        });
+        const allowed =
+          expected === 'public' || (caller !== 'anonymous' && !!expected?.includes(caller));
+        const refusal = caller === 'anonymous' ? 401 : 403;
+        const ok = allowed
+          ? answer.status !== 401 && answer.status !== 403 && answer.status < 500
+          : answer.status === refusal;
+        if (!ok)
+          wrong.push(
+            `${route} as ${caller}: ${answer.status} (${allowed ? 'allowed' : 'refused'} expected)`,
+          );
+      }
+    }
+    expect(wrong).toEqual([]);
+  });
+});
