@@ -3,3 +3,5 @@ export * from './errors.js';
 export * from './roles.js';
 export * from './live.js';
 export * from './scale/types.js';
+export * from './scale-link.js';
+export * from './benches.js';

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { parseScaleUrl, ScaleUrlError, type ScaleLinkSettings } from '@tareline/protocol';
 import { z } from 'zod';
 
 const hubRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -19,6 +20,8 @@ export interface AppConfig {
   database: { url: string | undefined };
   log: { level: LogLevel };
   paths: { migrations: string; station: string };
+  /** The scale link of the default bench `bench-1` (and of any bench without its own). */
+  scale: { url: string; link: ScaleLinkSettings };
 }
 
 const portSchema = z.coerce
@@ -39,6 +42,17 @@ const envSchema = z.object({
     .refine((v) => v === '' || /^postgres(ql)?:\/\//.test(v), 'must start with postgres://')
     .optional(),
   TARELINE_STATION_DIR: z.string().min(1).optional(),
+  TARELINE_SCALE: z
+    .string()
+    .default('sim://')
+    .superRefine((url, ctx) => {
+      try {
+        parseScaleUrl(url);
+      } catch (err) {
+        if (!(err instanceof ScaleUrlError)) throw err;
+        ctx.addIssue({ code: 'custom', message: err.problems.join('; ') });
+      }
+    }),
 });
 
 /** Every bad environment variable at once, so a start-up fails with one message to fix them all. */
@@ -93,5 +107,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
         ? resolve(e.TARELINE_STATION_DIR)
         : resolve(hubRoot, '..', 'station', 'dist'),
     },
+    scale: { url: e.TARELINE_SCALE, link: parseScaleUrl(e.TARELINE_SCALE) },
   };
 }
