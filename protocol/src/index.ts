@@ -5,3 +5,4 @@ export * from './live.js';
 export * from './scale/types.js';
 export * from './scale-link.js';
 export * from './benches.js';
+export * from './scale-stability.js';
