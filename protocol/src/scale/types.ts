@@ -91,6 +91,10 @@ export interface ScaleCodec {
   encodeRefusal(line: string): string;
   /** Simulator side: the reply to a tare command (carries the tare value where the family does). */
   encodeTareReply(tareGrams: number, reading: EncodableReading): string;
+  /** Simulator side: the reply to a command done without a value to report (e.g. zero). */
+  encodeAck(command: ScaleCommand): string;
+  /** Simulator side: the reply when the balance cannot answer yet (e.g. never settled). */
+  encodeBusy(command: ScaleCommand): string;
 }
 
 /** Live socket event: one reading of a bench's scale, already normalised by the hub. */
