@@ -99,6 +99,8 @@ export class ScaleLink {
   private stabilityToleranceG = 0;
   /** The tare the scale itself holds (from its tare reply), to tell gross from net. */
   private scaleTareG = 0;
+  /** Gross when a tare command was sent, for families that print no tare value (lines turn net). */
+  private grossAtTareCommandG: number | undefined;
   /** Tare and zero kept by the hub for scales that have no such command. */
   private softTareG = 0;
   private softZeroG = 0;
@@ -311,6 +313,7 @@ export class ScaleLink {
       case 'weight':
         if (line.tare) {
           this.scaleTareG = line.grams;
+          this.grossAtTareCommandG = undefined;
           return;
         }
         this.acceptWeight(t, line);
@@ -367,6 +370,10 @@ export class ScaleLink {
       grossG = line.grams - this.softZeroG;
       netG = grossG - this.softTareG;
     } else {
+      if (line.mode === 'net' && this.grossAtTareCommandG !== undefined) {
+        if (this.scaleTareG === 0) this.scaleTareG = this.grossAtTareCommandG;
+        this.grossAtTareCommandG = undefined;
+      }
       // Net of the scale's own tare (or a format that does not say, which shows its display).
       netG = line.grams - this.softZeroG - this.softTareG;
       grossG = line.grams - this.softZeroG + this.scaleTareG;
@@ -444,6 +451,10 @@ export class ScaleLink {
       Math.abs(what === 'tare' ? r.netG : r.grossG) <= 2 * this.readabilityG() + 1e-9;
     const commandLine = this.codec.command(what);
     if (commandLine !== undefined) {
+      if (what === 'tare') {
+        this.scaleTareG = 0;
+        this.grossAtTareCommandG = this.last?.outOfRange ? undefined : this.last?.grossG;
+      }
       const refused = await this.sendAndWait(what, commandLine, settled);
       if (!refused) {
         // The scale holds the tare (or the zero) now; a software one on top would count twice.

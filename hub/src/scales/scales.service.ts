@@ -44,6 +44,7 @@ export class ScalesService implements OnApplicationShutdown {
   private readonly links = new Map<string, ScaleLink>();
   private transportFactory: TransportFactory = defaultTransportFactory;
   private timings: Partial<ScaleLinkTimings> = {};
+  private readonly attachListeners = new Set<(benchId: string) => void>();
 
   /** For tests: how transports are made and how fast links give up, before any attach. */
   configure(options: { transportFactory?: TransportFactory; timings?: Partial<ScaleLinkTimings> }) {
@@ -61,8 +62,15 @@ export class ScalesService implements OnApplicationShutdown {
       this.timings,
     );
     this.links.set(benchId, scaleLink);
+    for (const listener of this.attachListeners) listener(benchId);
     scaleLink.start();
     this.logger.log(`${benchId}: reading ${scaleLink.transport.description}`);
+  }
+
+  /** Called with the bench id each time a bench gets a (new) scale link, before it starts. */
+  onAttach(listener: (benchId: string) => void): () => void {
+    this.attachListeners.add(listener);
+    return () => this.attachListeners.delete(listener);
   }
 
   async detach(benchId: string): Promise<void> {

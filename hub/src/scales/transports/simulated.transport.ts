@@ -5,7 +5,7 @@ import type {
   PortStatus,
   SetOptions,
   UpdateOptions,
-} from '@serialport/bindings-interface';
+} from '@serialport/bindings-interface' with { 'resolution-mode': 'require' };
 import { SerialPortStream } from '@serialport/stream';
 import { LineSplitter, type SimulatedLinkSettings } from '@tareline/protocol';
 import { SimulatedScale } from '@tareline/simulator';
