@@ -6,7 +6,6 @@ import {
   StabilityWindow,
   type ReadingEvent,
   type ScaleCodec,
-  type ScaleCommand,
   type ScaleLine,
   type ScaleLinkSettings,
   type ScaleState,
@@ -271,7 +270,7 @@ export class ScaleLink {
       return;
     }
     this.staleTimer = setTimeout(() => {
-      const seconds = (this.timings.staleAfterMs / 1000).toFixed(0);
+      const seconds = this.timings.staleAfterMs / 1000;
       this.setState(
         'stale',
         this.current.state === 'online' || this.current.state === 'stale'
@@ -449,61 +448,66 @@ export class ScaleLink {
     const settled = (r: ReadingEvent) =>
       !r.outOfRange &&
       Math.abs(what === 'tare' ? r.netG : r.grossG) <= 2 * this.readabilityG() + 1e-9;
-    const commandLine = this.codec.command(what);
-    if (commandLine !== undefined) {
+    const software = () => {
+      const reading = this.last;
+      if (!reading || reading.outOfRange) {
+        throw new ScaleCommandError(`Cannot ${what}: no valid reading from the scale yet`);
+      }
       if (what === 'tare') {
-        this.scaleTareG = 0;
-        this.grossAtTareCommandG = this.last?.outOfRange ? undefined : this.last?.grossG;
-      }
-      const refused = await this.sendAndWait(what, commandLine, settled);
-      if (!refused) {
-        // The scale holds the tare (or the zero) now; a software one on top would count twice.
+        this.softTareG = reading.grossG;
+      } else {
+        this.softZeroG += reading.grossG;
         this.softTareG = 0;
-        if (what === 'zero') this.softZeroG = 0;
-        return;
       }
-      this.logger.warn(`the scale refused the ${what} command; keeping a software ${what}`);
-    }
-    const reading = this.last;
-    if (!reading || reading.outOfRange) {
-      throw new ScaleCommandError(`Cannot ${what}: no valid reading from the scale yet`);
+    };
+    const commandLine = this.codec.command(what);
+    if (commandLine === undefined) {
+      software();
+      await this.waitFor(settled, what);
+      return;
     }
     if (what === 'tare') {
-      this.softTareG = reading.grossG;
-    } else {
-      this.softZeroG += reading.grossG;
-      this.softTareG = 0;
+      this.scaleTareG = 0;
+      this.grossAtTareCommandG = this.last?.outOfRange ? undefined : this.last?.grossG;
     }
-    await this.waitFor(settled, what);
-  }
-
-  /** Writes a command; resolves true if the scale refused it, false once `settled` holds. */
-  private sendAndWait(
-    what: ScaleCommand,
-    commandLine: string,
-    settled: (r: ReadingEvent) => boolean,
-  ): Promise<boolean> {
-    return new Promise<boolean>((resolve, reject) => {
-      const offRefusal = () => this.refusalListeners.delete(onRefused);
+    // The scale holds the tare (or the zero) from now on; a software one on top would count twice.
+    const { softTareG, softZeroG } = this;
+    this.softTareG = 0;
+    if (what === 'zero') this.softZeroG = 0;
+    await new Promise<void>((resolve, reject) => {
       const onRefused = () => {
-        offRefusal();
-        for (const waiter of this.waiters) {
-          if (waiter.resolve === onSettled) {
-            clearTimeout(waiter.timer);
-            this.waiters.delete(waiter);
+        this.refusalListeners.delete(onRefused);
+        this.logger.warn(`the scale refused the ${what} command; keeping a software ${what}`);
+        this.softTareG = softTareG;
+        this.softZeroG = softZeroG;
+        this.grossAtTareCommandG = undefined;
+        // Synchronously, so the very next line is already read with the software tare.
+        try {
+          software();
+        } catch (err) {
+          for (const waiter of this.waiters) {
+            if (waiter.resolve === onSettled) {
+              clearTimeout(waiter.timer);
+              this.waiters.delete(waiter);
+            }
           }
+          reject(err as Error);
         }
-        resolve(true);
       };
       const onSettled = () => {
-        offRefusal();
-        resolve(false);
+        this.refusalListeners.delete(onRefused);
+        resolve();
       };
       this.refusalListeners.add(onRefused);
-      this.addWaiter(settled, what, onSettled, (err) => {
-        offRefusal();
-        reject(err);
-      });
+      this.addWaiter(
+        settled,
+        what,
+        onSettled,
+        (err) => {
+          this.refusalListeners.delete(onRefused);
+          reject(err);
+        },
+      );
       this.connection!.stream.write(`${commandLine}\r\n`);
     });
   }
