@@ -14,7 +14,8 @@ import {
   type SerialLinkSettings,
 } from '@tareline/protocol';
 import { SerialPortMock } from 'serialport';
-import { afterEach, describe, expect, it } from 'vitest';
+import { Logger } from '@nestjs/common';
+import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { ScaleCommandError, ScaleLink } from './scale-link.js';
 import { SerialTransport } from './transports/serial.transport.js';
 
@@ -96,6 +97,8 @@ class MockScale {
 }
 
 const FAST = { staleAfterMs: 400, initialBackoffMs: 50, maxBackoffMs: 200, commandTimeoutMs: 1_500 };
+
+beforeAll(() => Logger.overrideLogger(false));
 
 const links: ScaleLink[] = [];
 afterEach(async () => {
