@@ -8,6 +8,7 @@ import {
   NotFoundException,
   Param,
   Post,
+  UnprocessableEntityException,
 } from '@nestjs/common';
 import {
   benchIdSchema,
@@ -17,7 +18,12 @@ import {
 } from '@tareline/protocol';
 import { Public, Roles } from '../auth/access.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
-import { BenchesService, BenchNotFoundError, NotSimulatedError } from './benches.service.js';
+import {
+  BenchesService,
+  BenchNotFoundError,
+  NotSimulatedError,
+  SimulatorScriptError,
+} from './benches.service.js';
 
 @Controller('benches')
 export class BenchesController {
@@ -47,6 +53,9 @@ export class BenchesController {
     } catch (err) {
       if (err instanceof BenchNotFoundError) {
         throw new NotFoundException({ message: err.message, errors: [] });
+      }
+      if (err instanceof SimulatorScriptError) {
+        throw new UnprocessableEntityException({ message: err.message, errors: [] });
       }
       if (err instanceof NotSimulatedError) {
         throw new ConflictException({ message: err.message, errors: [] });

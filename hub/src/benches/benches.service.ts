@@ -30,6 +30,14 @@ export class NotSimulatedError extends Error {
   }
 }
 
+/** A script step the simulator could not carry out (a wait that timed out, a stopped hub). */
+export class SimulatorScriptError extends Error {
+  constructor(reason: string) {
+    super(`The simulator script stopped: ${reason}`);
+    this.name = 'SimulatorScriptError';
+  }
+}
+
 /**
  * The benches and their scale links: makes sure the default bench exists, tells the scales
  * service which scale each active bench reads, and lists benches with their live scale state.
@@ -105,6 +113,10 @@ export class BenchesService implements OnApplicationBootstrap {
     if (!this.scales.has(benchId)) throw new BenchNotFoundError(benchId);
     const simulator = this.scales.simulator(benchId);
     if (!simulator) throw new NotSimulatedError(benchId);
-    await simulator.runScript(steps);
+    try {
+      await simulator.runScript(steps);
+    } catch (err) {
+      throw new SimulatorScriptError(err instanceof Error ? err.message : String(err));
+    }
   }
 }
