@@ -41,7 +41,9 @@ describe('live weights from the simulated bench over socket.io', () => {
   beforeAll(async () => {
     data = await tempDataDir();
     // 50 lines a second: twice what the socket may carry, to see the throttle at work.
-    hub = await startTestHub(data.dir, { TARELINE_SCALE: 'sim://?format=headered&rateHz=50&seed=4' });
+    hub = await startTestHub(data.dir, {
+      TARELINE_SCALE: 'sim://?format=headered&rateHz=50&seed=4',
+    });
   });
 
   afterEach(() => {

@@ -63,7 +63,10 @@ class PtyPair {
 }
 
 /** The simulator on the scale end of the pair, through the real serialport bindings. */
-async function attachSimulator(path: string, simulator: SimulatedScale): Promise<() => Promise<void>> {
+async function attachSimulator(
+  path: string,
+  simulator: SimulatedScale,
+): Promise<() => Promise<void>> {
   const port = new SerialPort({ path, baudRate: 9600, autoOpen: false });
   await new Promise<void>((resolve, reject) => port.open((err) => (err ? reject(err) : resolve())));
   const commands = new LineSplitter();
@@ -142,7 +145,9 @@ describe('a scale on a real pseudo-terminal, read by the hub and seen on the liv
     let cursor = 0;
     for (const grams of got) {
       const found = sent.indexOf(grams, cursor);
-      expect(found, `reading ${grams} g out of order or never printed`).toBeGreaterThanOrEqual(cursor);
+      expect(found, `reading ${grams} g out of order or never printed`).toBeGreaterThanOrEqual(
+        cursor,
+      );
       cursor = found;
     }
     // 20 lines a second fit under the 25-a-second limit: nearly all of the pour's lines arrive.

@@ -27,9 +27,9 @@ const numberParam = (what: string) =>
     message: `${what} must be a number`,
   });
 const booleanParam = (what: string) =>
-  z.enum(['true', 'false', '1', '0'], { error: `${what} must be true or false` }).transform(
-    (v) => v === 'true' || v === '1',
-  );
+  z
+    .enum(['true', 'false', '1', '0'], { error: `${what} must be true or false` })
+    .transform((v) => v === 'true' || v === '1');
 
 const commonParams = {
   format: scaleFormatSettingSchema.default('auto'),
@@ -124,7 +124,16 @@ export class ScaleUrlError extends Error {
 }
 
 const KNOWN_PARAMS: Record<ScaleTransportKind, readonly string[]> = {
-  serial: ['baud', 'dataBits', 'parity', 'stopBits', 'rtscts', 'format', 'readabilityG', 'stabilityWindowS'],
+  serial: [
+    'baud',
+    'dataBits',
+    'parity',
+    'stopBits',
+    'rtscts',
+    'format',
+    'readabilityG',
+    'stabilityWindowS',
+  ],
   tcp: ['format', 'readabilityG', 'stabilityWindowS'],
   simulated: [
     'format',
@@ -143,13 +152,17 @@ export function parseScaleUrl(url: string): ScaleLinkSettings {
   try {
     parsed = new URL(url.trim());
   } catch {
-    throw new ScaleUrlError(url, [
-      `not a URL; write it like ${SCALE_URL_EXAMPLES.join(' or ')}`,
-    ]);
+    throw new ScaleUrlError(url, [`not a URL; write it like ${SCALE_URL_EXAMPLES.join(' or ')}`]);
   }
   const scheme = parsed.protocol.replace(/:$/, '');
   const transport: ScaleTransportKind | undefined =
-    scheme === 'serial' ? 'serial' : scheme === 'tcp' ? 'tcp' : scheme === 'sim' ? 'simulated' : undefined;
+    scheme === 'serial'
+      ? 'serial'
+      : scheme === 'tcp'
+        ? 'tcp'
+        : scheme === 'sim'
+          ? 'simulated'
+          : undefined;
   if (!transport) {
     throw new ScaleUrlError(url, [`unknown scheme "${scheme}:"; use serial:, tcp: or sim:`]);
   }

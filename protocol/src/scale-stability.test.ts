@@ -3,7 +3,8 @@ import { StabilityWindow } from './scale-stability.js';
 
 describe('StabilityWindow', () => {
   // 20 readings a second, d = 0.01 g, a 1 s window: the settings the hub uses by default.
-  const every50ms = (values: number[], start = 0) => values.map((g, i) => ({ t: start + i * 50, g }));
+  const every50ms = (values: number[], start = 0) =>
+    values.map((g, i) => ({ t: start + i * 50, g }));
 
   it('is unstable until a full window of readings agrees within ± d', () => {
     const w = new StabilityWindow(1000, 0.01);

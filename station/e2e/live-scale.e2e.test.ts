@@ -37,7 +37,9 @@ describe('the live-scale page in Chromium', () => {
     });
     expect(place.status).toBe(200);
     await page.waitForFunction(
-      () => Math.abs(Number(document.querySelector('[data-testid="net-weight"]')?.textContent) - 40) < 0.1,
+      () =>
+        Math.abs(Number(document.querySelector('[data-testid="net-weight"]')?.textContent) - 40) <
+        0.1,
       undefined,
       { timeout: 10_000 },
     );
@@ -59,7 +61,9 @@ describe('the live-scale page in Chromium', () => {
     await page.screenshot({ path: join(artifactsDir, 'live-scale-pouring.png') });
     expect((await pour).status).toBe(200);
     await page.waitForFunction(
-      () => Math.abs(Number(document.querySelector('[data-testid="net-weight"]')?.textContent) - 70) < 0.3,
+      () =>
+        Math.abs(Number(document.querySelector('[data-testid="net-weight"]')?.textContent) - 70) <
+        0.3,
       undefined,
       { timeout: 10_000 },
     );

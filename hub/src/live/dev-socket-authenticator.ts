@@ -18,7 +18,10 @@ import { BenchesService } from '../benches/benches.service.js';
 export class DevSocketAuthenticator implements SocketAuthenticator {
   constructor(@Inject(BenchesService) private readonly benches: BenchesService) {}
 
-  async authenticate(handshake: { token: string | undefined; benchId: string }): Promise<SocketPrincipal> {
+  async authenticate(handshake: {
+    token: string | undefined;
+    benchId: string;
+  }): Promise<SocketPrincipal> {
     if (!(await this.benches.exists(handshake.benchId))) {
       throw new SocketRefusedError(`There is no bench "${handshake.benchId}"`);
     }

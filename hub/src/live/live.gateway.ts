@@ -21,7 +21,12 @@ interface LiveSocketData {
   principal: SocketPrincipal;
 }
 
-type LiveNamespace = Namespace<LiveClientEvents, LiveServerEvents, Record<string, never>, LiveSocketData>;
+type LiveNamespace = Namespace<
+  LiveClientEvents,
+  LiveServerEvents,
+  Record<string, never>,
+  LiveSocketData
+>;
 type LiveSocket = Socket<LiveClientEvents, LiveServerEvents, Record<string, never>, LiveSocketData>;
 
 /** How often open sockets are asked again whether their person may still watch. */
@@ -39,7 +44,10 @@ export const benchRoom = (benchId: string) => `bench:${benchId}`;
  */
 @WebSocketGateway({ namespace: LIVE_NAMESPACE })
 export class LiveGateway
-  implements OnGatewayInit<LiveNamespace>, OnGatewayConnection<LiveSocket>, OnGatewayDisconnect<LiveSocket>
+  implements
+    OnGatewayInit<LiveNamespace>,
+    OnGatewayConnection<LiveSocket>,
+    OnGatewayDisconnect<LiveSocket>
 {
   private readonly logger = new Logger('Live');
   private readonly expiryTimers = new Map<string, NodeJS.Timeout>();
@@ -119,9 +127,7 @@ export class LiveGateway
   private async recheck(): Promise<void> {
     const sockets = await this.server.fetchSockets();
     for (const socket of sockets) {
-      const ok = await this.authenticator
-        .stillValid(socket.data.principal)
-        .catch(() => false);
+      const ok = await this.authenticator.stillValid(socket.data.principal).catch(() => false);
       if (!ok) socket.disconnect(true);
     }
   }

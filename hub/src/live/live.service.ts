@@ -30,7 +30,9 @@ export class LiveService implements OnModuleInit, OnApplicationShutdown {
     );
     this.throttles.set(benchId, throttle);
     this.scales.onReading(benchId, (reading) => throttle.push(reading));
-    this.scales.onStatus(benchId, (status) => this.gateway.emitToBench(benchId, 'scaleStatus', status));
+    this.scales.onStatus(benchId, (status) =>
+      this.gateway.emitToBench(benchId, 'scaleStatus', status),
+    );
   }
 
   onApplicationShutdown(): void {

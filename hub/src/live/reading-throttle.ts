@@ -23,12 +23,15 @@ export class TrailingThrottle<T> {
       return;
     }
     this.held = { value };
-    this.timer ??= setTimeout(() => {
-      this.timer = undefined;
-      const held = this.held;
-      this.held = undefined;
-      if (held) this.fire(held.value);
-    }, Math.max(0, wait));
+    this.timer ??= setTimeout(
+      () => {
+        this.timer = undefined;
+        const held = this.held;
+        this.held = undefined;
+        if (held) this.fire(held.value);
+      },
+      Math.max(0, wait),
+    );
   }
 
   /** Drops a held value and the timer (the stream is gone). */

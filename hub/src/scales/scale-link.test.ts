@@ -1,7 +1,6 @@
-import type {
-  BindingInterface,
-  OpenOptions,
-} from '@serialport/bindings-interface' with { 'resolution-mode': 'require' };
+import type { BindingInterface, OpenOptions } from '@serialport/bindings-interface' with {
+  'resolution-mode': 'require',
+};
 import {
   getCodec,
   parseScaleUrl,
@@ -96,7 +95,12 @@ class MockScale {
   }
 }
 
-const FAST = { staleAfterMs: 400, initialBackoffMs: 50, maxBackoffMs: 200, commandTimeoutMs: 1_500 };
+const FAST = {
+  staleAfterMs: 400,
+  initialBackoffMs: 50,
+  maxBackoffMs: 200,
+  commandTimeoutMs: 1_500,
+};
 
 beforeAll(() => Logger.overrideLogger(false));
 
@@ -107,7 +111,12 @@ afterEach(async () => {
 
 function startLink(url: string, scale = new MockScale()) {
   const settings = parseScaleUrl(url.replace('PATH', scale.path)) as ScaleLinkSettings;
-  const link = new ScaleLink('bench-t', settings, new SerialTransport(settings as SerialLinkSettings, scale.binding), FAST);
+  const link = new ScaleLink(
+    'bench-t',
+    settings,
+    new SerialTransport(settings as SerialLinkSettings, scale.binding),
+    FAST,
+  );
   links.push(link);
   const readings: ReadingEvent[] = [];
   const states: ScaleStatusEvent[] = [];
@@ -144,7 +153,10 @@ describe('ScaleLink over the mock serial binding', () => {
     ]);
     expect(readings.map((r) => r.seq)).toEqual([0, 1, 2]);
     expect(readings.every((r) => r.benchId === 'bench-t')).toBe(true);
-    expect(link.status()).toMatchObject({ state: 'online', detail: expect.stringContaining('headered') });
+    expect(link.status()).toMatchObject({
+      state: 'online',
+      detail: expect.stringContaining('headered'),
+    });
     // d read from the two printed decimals.
     expect(link.readabilityG()).toBe(0.01);
   });
@@ -152,7 +164,8 @@ describe('ScaleLink over the mock serial binding', () => {
   it('recognises the format by itself and normalises units to grams', async () => {
     const { link, scale, readings } = startLink('serial://PATH?format=auto');
     await until('the port to open', () => scale.ports.length === 1);
-    for (let i = 0; i < 3; i += 1) scale.print('plain', { grams: 453.59237, unit: 'lb', decimals: 3 });
+    for (let i = 0; i < 3; i += 1)
+      scale.print('plain', { grams: 453.59237, unit: 'lb', decimals: 3 });
     await until('online', stateIs(link, 'online'));
     expect(link.status().detail).toMatch(/plain lines \(recognised\)/);
     await until('a reading', () => readings.length > 0);
@@ -194,7 +207,13 @@ describe('ScaleLink over the mock serial binding', () => {
     await until('the tare command', () => scale.written().length > 0);
     expect(scale.written()).toBe(`${getCodec('echo').command('tare')}\r\n`);
     const codec = getCodec('echo');
-    const display: EncodableReading = { grams: 0, stable: true, mode: 'net', unit: 'g', decimals: 2 };
+    const display: EncodableReading = {
+      grams: 0,
+      stable: true,
+      mode: 'net',
+      unit: 'g',
+      decimals: 2,
+    };
     scale.send(`${codec.encodeTareReply(40, display)}\r\n`);
     scale.print('echo', { grams: 0, mode: 'net' });
     await tared;

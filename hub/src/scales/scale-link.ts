@@ -114,7 +114,11 @@ export class ScaleLink {
   ) {
     this.timings = { ...DEFAULT_LINK_TIMINGS, ...timings };
     this.logger = new Logger(`Scale ${benchId}`);
-    this.current = { benchId, state: 'connecting', detail: `not opened yet: ${transport.description}` };
+    this.current = {
+      benchId,
+      state: 'connecting',
+      detail: `not opened yet: ${transport.description}`,
+    };
   }
 
   // ---- reading the state --------------------------------------------------------------------
@@ -499,15 +503,10 @@ export class ScaleLink {
         resolve();
       };
       this.refusalListeners.add(onRefused);
-      this.addWaiter(
-        settled,
-        what,
-        onSettled,
-        (err) => {
-          this.refusalListeners.delete(onRefused);
-          reject(err);
-        },
-      );
+      this.addWaiter(settled, what, onSettled, (err) => {
+        this.refusalListeners.delete(onRefused);
+        reject(err);
+      });
       this.connection!.stream.write(`${commandLine}\r\n`);
     });
   }

@@ -35,13 +35,21 @@ export class TransportOpenError extends Error {
   }
 }
 
-const ABSENT_CODES = new Set(['ENOENT', 'ENODEV', 'ENXIO', 'ECONNREFUSED', 'EHOSTUNREACH', 'ECONNRESET']);
+const ABSENT_CODES = new Set([
+  'ENOENT',
+  'ENODEV',
+  'ENXIO',
+  'ECONNREFUSED',
+  'EHOSTUNREACH',
+  'ECONNRESET',
+]);
 
 /** Sorts a system error into absent (offline) or a real problem (error). */
 export function toOpenError(err: unknown, what: string): TransportOpenError {
   const e = err as NodeJS.ErrnoException;
   const code = e?.code ?? /\b(E[A-Z]+)\b/.exec(e?.message ?? '')?.[1];
   const absent =
-    (code !== undefined && ABSENT_CODES.has(code)) || /no such file|unplugged/i.test(e?.message ?? '');
+    (code !== undefined && ABSENT_CODES.has(code)) ||
+    /no such file|unplugged/i.test(e?.message ?? '');
   return new TransportOpenError(`${what}: ${e?.message ?? String(err)}`, absent);
 }

@@ -1,4 +1,6 @@
-import type { BindingInterface } from '@serialport/bindings-interface' with { 'resolution-mode': 'require' };
+import type { BindingInterface } from '@serialport/bindings-interface' with {
+  'resolution-mode': 'require',
+};
 import { SerialPortStream } from '@serialport/stream';
 import { describeScaleLink, type SerialLinkSettings } from '@tareline/protocol';
 import { SerialPort } from 'serialport';

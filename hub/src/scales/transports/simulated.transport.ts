@@ -11,7 +11,11 @@ import { LineSplitter, type SimulatedLinkSettings } from '@tareline/protocol';
 import { SimulatedScale } from '@tareline/simulator';
 import { SerialPortMock } from 'serialport';
 import { openSerialStream } from './serial.transport.js';
-import { TransportOpenError, type ScaleConnection, type ScaleTransport } from './scale-transport.js';
+import {
+  TransportOpenError,
+  type ScaleConnection,
+  type ScaleTransport,
+} from './scale-transport.js';
 
 type MockPort = Awaited<ReturnType<typeof SerialPortMock.binding.open>>;
 
@@ -30,11 +34,7 @@ export class SimulatedTransport implements ScaleTransport {
   private readonly path: string;
   private readonly binding: BindingInterface<SimulatedPortBinding>;
 
-  constructor(
-    link: SimulatedLinkSettings,
-    benchId: string,
-    simulator?: SimulatedScale,
-  ) {
+  constructor(link: SimulatedLinkSettings, benchId: string, simulator?: SimulatedScale) {
     this.simulator =
       simulator ??
       new SimulatedScale({

@@ -25,14 +25,20 @@ describe('Gauge', () => {
   });
 
   it('shows the verdict as a word with its hint while online', () => {
-    render(<Gauge reading={reading(14.02)} status={online} verdict="GO" label="Part B" {...partB} />);
+    render(
+      <Gauge reading={reading(14.02)} status={online} verdict="GO" label="Part B" {...partB} />,
+    );
     expect(screen.getByRole('region', { name: 'Gauge: Part B' })).toBeInTheDocument();
     expect(screen.getByText('GO')).toBeInTheDocument();
     expect(screen.getByText('in the band')).toBeInTheDocument();
   });
 
   it('withholds the verdict while the scale is not online, and says why', () => {
-    const stale: ScaleStatusEvent = { ...online, state: 'stale', detail: 'no line from the scale for 2 s' };
+    const stale: ScaleStatusEvent = {
+      ...online,
+      state: 'stale',
+      detail: 'no line from the scale for 2 s',
+    };
     render(<Gauge reading={reading(14.02)} status={stale} verdict="GO" {...partB} />);
     expect(screen.queryByText('GO')).not.toBeInTheDocument();
     expect(screen.getByText('No verdict while the scale is not sending')).toBeInTheDocument();

@@ -60,7 +60,11 @@ export function Gauge({
         ? 'UNDERLOAD'
         : formatGrams(netG, decimals);
   const nearTarget =
-    online && slowDownFromG !== undefined && band !== undefined && netG >= slowDownFromG && netG < band.lowG;
+    online &&
+    slowDownFromG !== undefined &&
+    band !== undefined &&
+    netG >= slowDownFromG &&
+    netG < band.lowG;
   const state = STATE_SHOWN[status.state];
 
   return (
@@ -70,8 +74,16 @@ export function Gauge({
     >
       <div className="flex items-center justify-between gap-4">
         <h2 className="text-2xl font-semibold">{label ?? 'Net weight'}</h2>
-        <div role="status" aria-live="polite" className="flex items-center gap-2 text-lg" title={status.detail}>
-          <span aria-hidden="true" className={`inline-block h-3.5 w-3.5 rounded-full ${state.dot}`} />
+        <div
+          role="status"
+          aria-live="polite"
+          className="flex items-center gap-2 text-lg"
+          title={status.detail}
+        >
+          <span
+            aria-hidden="true"
+            className={`inline-block h-3.5 w-3.5 rounded-full ${state.dot}`}
+          />
           <span className="font-semibold">Scale: {state.word}</span>
         </div>
       </div>
@@ -93,7 +105,10 @@ export function Gauge({
         </p>
       )}
 
-      <div className="relative mt-6 h-16 overflow-hidden rounded-lg bg-paper ring-1 ring-line" aria-hidden="true">
+      <div
+        className="relative mt-6 h-16 overflow-hidden rounded-lg bg-paper ring-1 ring-line"
+        aria-hidden="true"
+      >
         {slowDownFromG !== undefined && band && (
           <div
             data-zone="slow-down"
@@ -140,8 +155,18 @@ export function Gauge({
         {nearTarget && (
           <p className="flex items-center gap-3 text-3xl font-bold">
             <svg viewBox="0 0 24 24" aria-hidden="true" className="h-10 w-10">
-              <path d="M3 20 L12 4 L21 20 Z" fill="var(--color-brass)" stroke="currentColor" strokeWidth="1.5" />
-              <path d="M12 10 V14 M12 16.5 V17" stroke="currentColor" strokeWidth="2.2" strokeLinecap="round" />
+              <path
+                d="M3 20 L12 4 L21 20 Z"
+                fill="var(--color-brass)"
+                stroke="currentColor"
+                strokeWidth="1.5"
+              />
+              <path
+                d="M12 10 V14 M12 16.5 V17"
+                stroke="currentColor"
+                strokeWidth="2.2"
+                strokeLinecap="round"
+              />
             </svg>
             Slow down: near the target
           </p>

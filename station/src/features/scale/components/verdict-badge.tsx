@@ -1,7 +1,10 @@
 import type { ReactNode } from 'react';
 import type { GaugeVerdict } from '../types';
 
-const SHOWN: Record<GaugeVerdict, { word: string; hint: string; className: string; icon: ReactNode }> = {
+const SHOWN: Record<
+  GaugeVerdict,
+  { word: string; hint: string; className: string; icon: ReactNode }
+> = {
   UNDER: {
     word: 'UNDER',
     hint: 'keep pouring',
@@ -39,8 +42,22 @@ const SHOWN: Record<GaugeVerdict, { word: string; hint: string; className: strin
     // A cross in a square: stop.
     icon: (
       <>
-        <rect x="2.5" y="2.5" width="19" height="19" rx="3" fill="none" stroke="currentColor" strokeWidth="2.5" />
-        <path d="M8 8 L16 16 M16 8 L8 16" stroke="currentColor" strokeWidth="3" strokeLinecap="round" />
+        <rect
+          x="2.5"
+          y="2.5"
+          width="19"
+          height="19"
+          rx="3"
+          fill="none"
+          stroke="currentColor"
+          strokeWidth="2.5"
+        />
+        <path
+          d="M8 8 L16 16 M16 8 L8 16"
+          stroke="currentColor"
+          strokeWidth="3"
+          strokeLinecap="round"
+        />
       </>
     ),
   },

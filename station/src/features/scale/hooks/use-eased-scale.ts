@@ -30,8 +30,7 @@ export function useEasedScaleX(ref: RefObject<HTMLElement | null>, fraction: num
       shown.current += (goal.current - shown.current) * step;
       if (Math.abs(goal.current - shown.current) < 0.0005) shown.current = goal.current;
       element.style.transform = `scaleX(${shown.current})`;
-      frame.current =
-        shown.current === goal.current ? undefined : requestAnimationFrame(tick);
+      frame.current = shown.current === goal.current ? undefined : requestAnimationFrame(tick);
     };
     frame.current = requestAnimationFrame(tick);
   }, [fraction, ref]);

@@ -46,7 +46,14 @@ describe('useLiveBench', () => {
     const { socket } = sockets[0]!;
     socket.fire('connect');
     socket.fire('scaleStatus', { benchId: 'bench-2', state: 'online', detail: 'sim' });
-    socket.fire('reading', { benchId: 'bench-2', seq: 4, t: 1, grossG: 50, netG: 10, stable: false });
+    socket.fire('reading', {
+      benchId: 'bench-2',
+      seq: 4,
+      t: 1,
+      grossG: 50,
+      netG: 10,
+      stable: false,
+    });
     expect(result.current.connected).toBe(true);
     expect(result.current.status.state).toBe('online');
     expect(result.current.reading?.netG).toBe(10);
