@@ -6,7 +6,7 @@
  */
 import { fork, type ChildProcess } from 'node:child_process';
 import { readFile, writeFile } from 'node:fs/promises';
-import { cpus, totalmem, type, release } from 'node:os';
+import { cpus, loadavg, release, totalmem, type } from 'node:os';
 import { resolve } from 'node:path';
 import { io, type Socket } from 'socket.io-client';
 import { nowMs, type ChildMessage, type ParentMessage } from './line-source.js';
@@ -110,6 +110,7 @@ async function run(variant: 'relay' | 'hub', benches: number): Promise<Result> {
   };
 }
 
+const loadBefore = loadavg()[0]!;
 const results: Result[] = [];
 for (const benches of BENCH_COUNTS) {
   for (const variant of ['relay', 'hub'] as const) {
@@ -140,7 +141,8 @@ const rows = BENCH_COUNTS.map((benches) => {
 const section = `<!-- bench:live start -->
 ## Live weights: serial line to socket event (\`npm run bench:live\`)
 
-Run on ${new Date().toISOString().slice(0, 10)}: ${machine}.
+Run on ${new Date().toISOString().slice(0, 10)}: ${machine}. Load average (1 min) ${loadBefore.toFixed(1)}
+before the run and ${loadavg()[0]!.toFixed(1)} after it.
 
 Each bench is a mock serial port (serialport's mock binding) written with \`headered\` lines at
 ${RATE_HZ} lines a second; one socket.io client per bench, in another process, receives the
@@ -152,7 +154,7 @@ which are the same in both columns. **Relay** reads a line and emits it raw (no 
 judging or throttle); **hub** is the built hub: scale link, codec, stability, the 25-a-second
 throttle and the live gateway.
 
-| benches | relay p50 ms | relay p99 ms | relay CPU | hub p50 ms | hub p99 ms | hub CPU | hub p99 − relay p99 ms | hub events / lines written |
+| benches | relay p50 ms | relay p99 ms | relay CPU | hub p50 ms | hub p99 ms | hub CPU | hub p99 − relay p99 ms | hub events / lines expected |
 | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |
 ${rows.join('\n')}
 
