@@ -9,6 +9,10 @@ import { HealthModule } from './health/health.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
 import { PlanModule } from './plan/plan.module.js';
 import { PeopleModule } from './people/people.module.js';
+import { BenchesModule } from './benches/benches.module.js';
+import { BatchesModule } from './batches/batches.module.js';
+import { LiveModule } from './live/live.module.js';
+import { ScalesModule } from './scales/scales.module.js';
 
 @Module({})
 export class AppModule {
@@ -20,10 +24,14 @@ export class AppModule {
         DatabaseModule,
         AuthModule,
         HealthModule,
+        ScalesModule,
+        BenchesModule,
+        LiveModule,
         MaterialsModule,
         PlanModule,
         PeopleModule,
         DemoModule,
+        BatchesModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({
           rootPath: config.paths.station,

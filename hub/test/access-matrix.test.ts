@@ -26,6 +26,25 @@ const EXPECTED: Record<string, 'public' | readonly Role[]> = {
   'PUT /api/people/:id/badge': ['admin'],
   'PUT /api/people/:id/pin': ['admin'],
   'PUT /api/people/:id/password': ['admin'],
+  'POST /api/plan': 'public',
+  'GET /api/benches': EVERYONE_SIGNED_IN,
+  // Drives only the in-process simulator of a simulated bench: no real scale can be reached.
+  'POST /api/benches/:id/simulator': 'public',
+  'GET /api/materials': EVERYONE_SIGNED_IN,
+  'GET /api/materials/:id': EVERYONE_SIGNED_IN,
+  'POST /api/materials': ['lead', 'admin'],
+  'GET /api/lots': EVERYONE_SIGNED_IN,
+  'POST /api/lots': ['lead', 'admin'],
+  'GET /api/batches': EVERYONE_SIGNED_IN,
+  'GET /api/batches/current': EVERYONE_SIGNED_IN,
+  'GET /api/batches/:id': EVERYONE_SIGNED_IN,
+  'POST /api/batches': EVERYONE_SIGNED_IN,
+  'POST /api/batches/:id/tare': EVERYONE_SIGNED_IN,
+  'POST /api/batches/:id/next': EVERYONE_SIGNED_IN,
+  'POST /api/batches/:id/rescue': EVERYONE_SIGNED_IN,
+  'POST /api/batches/:id/save-no-go': EVERYONE_SIGNED_IN,
+  'POST /api/batches/:id/abandon': EVERYONE_SIGNED_IN,
+  'POST /api/batches/:id/resume': EVERYONE_SIGNED_IN,
 };
 
 interface ExpressLayer {

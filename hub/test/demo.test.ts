@@ -17,7 +17,11 @@ describe('demo shop seeding', () => {
   it('seeds people and benches on the first start only', async () => {
     const first = await startTestHub(data.dir);
     const people = await first.app.get(PeopleRepository).list();
-    expect(first.app.get(DemoService).stepNames()).toEqual(['people', 'benches']);
+    expect(first.app.get(DemoService).stepNames()).toEqual([
+      'people',
+      'benches',
+      'materials and lots',
+    ]);
     expect(() =>
       first.app.get(DemoService).register({ name: 'people', order: 99, run: async () => {} }),
     ).toThrow('Demo seed step "people" is registered twice');

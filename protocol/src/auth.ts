@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { roleSchema } from './roles.js';
+import { benchIdSchema } from './benches.js';
 
 /**
  * A badge code as the reader types it. Readers send printable ASCII; surrounding spaces are a
@@ -33,12 +34,6 @@ export const personNameSchema = z
   .trim()
   .min(1, 'Enter a name')
   .max(100, 'A name has at most 100 characters');
-
-export const benchIdSchema = z
-  .string({ error: 'Say which bench this is' })
-  .trim()
-  .min(1, 'Say which bench this is')
-  .max(64);
 
 /** `POST /api/auth/badge`: a badge scanned at a bench, with the PIN when one is needed. */
 export const badgeSignInRequestSchema = z.object({

@@ -7,3 +7,6 @@ export * from './mix/index.js';
 export * from './materials.js';
 export * from './batches.js';
 export * from './auth.js';
+export * from './scale-link.js';
+export * from './benches.js';
+export * from './scale-stability.js';

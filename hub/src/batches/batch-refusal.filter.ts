@@ -11,6 +11,9 @@ export class BatchRefusalFilter implements ExceptionFilter {
       .switchToHttp()
       .getResponse<Response>()
       .status(409)
-      .json({ message: refusal.message, errors: [{ path: refusal.code, message: refusal.message }] } satisfies ApiError);
+      .json({
+        message: refusal.message,
+        errors: [{ path: refusal.code, message: refusal.message }],
+      } satisfies ApiError);
   }
 }

@@ -1,4 +1,5 @@
 import {
+  BadRequestException,
   Body,
   Controller,
   Get,
@@ -32,7 +33,11 @@ const currentQuerySchema = z.object({
   benchId: z.string({ error: 'Name the bench' }).min(1, { error: 'Name the bench' }),
 });
 const batchId = new ParseIntPipe({
-  exceptionFactory: () => ({ message: 'A batch number is a whole number', errors: [] }),
+  exceptionFactory: () =>
+    new BadRequestException({
+      message: 'A batch number is a whole number',
+      errors: [{ path: 'id', message: 'A batch number is a whole number' }],
+    }),
 });
 
 /** Thin: every rule lives in BatchesService and the batch state machine. */

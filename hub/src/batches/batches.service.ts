@@ -301,7 +301,10 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
     return this.act(id, user, async (session) => {
       const status = this.scales.status(session.row.benchId);
       if (status.state !== 'online') {
-        throw new BatchRefusal(`The scale is ${status.state}: wait until it is back`, 'WRONG_STATE');
+        throw new BatchRefusal(
+          `The scale is ${status.state}: wait until it is back`,
+          'WRONG_STATE',
+        );
       }
       const tareLost = (session.row.detail as { tareLost?: boolean }).tareLost === true;
       const lastNetG = session.trace.at(-1)?.[1];
@@ -383,7 +386,9 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
       await this.commit(session, markTared(session.rec, nowIso()));
     } catch (err) {
       // The operator sees an untared pour and a Tare button; nothing is lost.
-      this.logger.warn(`Automatic tare on ${session.row.benchId} failed: ${(err as Error).message}`);
+      this.logger.warn(
+        `Automatic tare on ${session.row.benchId} failed: ${(err as Error).message}`,
+      );
     }
   }
 
@@ -511,7 +516,10 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
     flags: { tareLost?: boolean } = {},
   ): Promise<void> {
     const tareLost =
-      flags.tareLost ?? (rec.state === 'interrupted' ? (session.row.detail as { tareLost?: boolean }).tareLost : false);
+      flags.tareLost ??
+      (rec.state === 'interrupted'
+        ? (session.row.detail as { tareLost?: boolean }).tareLost
+        : false);
     const detail: BatchDetail & { tareLost?: boolean } = {
       parts: rec.parts,
       active: rec.active,

@@ -34,6 +34,18 @@ describe('loadConfig', () => {
   it('treats an empty variable as unset', () => {
     expect(loadConfig({ PORT: '' }).http.port).toBe(3000);
   });
+
+  it('links the default bench to the simulator unless TARELINE_SCALE says otherwise', () => {
+    expect(loadConfig({}).scale.link.transport).toBe('simulated');
+    const serial = loadConfig({ TARELINE_SCALE: 'serial:///dev/ttyUSB0?baud=4800' });
+    expect(serial.scale.link).toMatchObject({ transport: 'serial', baudRate: 4800 });
+  });
+
+  it('refuses a bad TARELINE_SCALE with the reason', () => {
+    expect(() => loadConfig({ TARELINE_SCALE: 'serial:///dev/ttyUSB0?baud=fast' })).toThrow(
+      /TARELINE_SCALE="serial:\/\/\/dev\/ttyUSB0\?baud=fast": baud must be a number/,
+    );
+  });
 });
 
 describe('loadConfig, sign-in settings', () => {

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { parseScaleUrl, ScaleUrlError, type ScaleLinkSettings } from '@tareline/protocol';
 import { z } from 'zod';
 
 const hubRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -32,6 +33,8 @@ export interface AppConfig {
     firstAdmin: { email: string; password: string } | undefined;
   };
   demo: { enabled: boolean };
+  /** The scale link of the default bench `bench-1` (and of any bench without its own). */
+  scale: { url: string; link: ScaleLinkSettings };
 }
 
 const portSchema = z.coerce
@@ -73,6 +76,17 @@ const envSchema = z.object({
   TARELINE_ADMIN_EMAIL: z.email('must be an e-mail address').optional(),
   TARELINE_ADMIN_PASSWORD: z.string().min(10, 'must be at least 10 characters').optional(),
   TARELINE_DEMO: z.enum(['0', '1'], { error: 'must be 0 or 1' }).default('1'),
+  TARELINE_SCALE: z
+    .string()
+    .default('sim://')
+    .superRefine((url, ctx) => {
+      try {
+        parseScaleUrl(url);
+      } catch (err) {
+        if (!(err instanceof ScaleUrlError)) throw err;
+        ctx.addIssue({ code: 'custom', message: err.problems.join('; ') });
+      }
+    }),
 });
 
 const SECRET_VARIABLES = new Set([
@@ -152,5 +166,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
           : undefined,
     },
     demo: { enabled: e.TARELINE_DEMO === '1' },
+    scale: { url: e.TARELINE_SCALE, link: parseScaleUrl(e.TARELINE_SCALE) },
   };
 }

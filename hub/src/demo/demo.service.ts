@@ -1,10 +1,12 @@
 import { Inject, Injectable, Logger, type OnApplicationBootstrap } from '@nestjs/common';
+import { lotInputSchema, materialInputSchema } from '@tareline/protocol';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { Database, type Db } from '../database/database.js';
-import { benches } from '../database/schema/index.js';
 import { PeopleRepository } from '../auth/people.repository.js';
 import { PeopleService } from '../people/people.service.js';
-import { DEMO_BENCHES, DEMO_PEOPLE } from './demo-shop.js';
+import { BenchesService } from '../benches/benches.service.js';
+import { MaterialsService } from '../materials/materials.service.js';
+import { DEMO_BENCHES, DEMO_LOTS, DEMO_MATERIALS, DEMO_PEOPLE } from './demo-shop.js';
 
 /** One part of the demo shop. Steps run in ascending `order`, once, on an empty database. */
 export interface SeedStep {
@@ -30,9 +32,19 @@ export class DemoService implements OnApplicationBootstrap {
     @Inject(Database) private readonly database: Database,
     @Inject(PeopleRepository) private readonly peopleStore: PeopleRepository,
     @Inject(PeopleService) private readonly people: PeopleService,
+    @Inject(BenchesService) private readonly benches: BenchesService,
+    @Inject(MaterialsService) private readonly materials: MaterialsService,
   ) {
     this.register({ name: 'people', order: 10, run: () => this.seedPeople() });
-    this.register({ name: 'benches', order: 20, run: (db) => seedBenches(db) });
+    // Through the benches service, so each new bench's scale is read at once.
+    this.register({
+      name: 'benches',
+      order: 20,
+      run: async () => {
+        for (const bench of DEMO_BENCHES) await this.benches.add({ ...bench });
+      },
+    });
+    this.register({ name: 'materials and lots', order: 30, run: () => this.seedMaterials() });
   }
 
   register(step: SeedStep): void {
@@ -82,12 +94,17 @@ export class DemoService implements OnApplicationBootstrap {
     }
     await this.peopleStore.insertMany(rows);
   }
-}
 
-async function seedBenches(db: Db): Promise<void> {
-  // The scale work also makes sure bench-1 exists; whichever runs first wins, nothing clashes.
-  await db
-    .insert(benches)
-    .values(DEMO_BENCHES.map((b) => ({ ...b })))
-    .onConflictDoNothing();
+  private async seedMaterials(): Promise<void> {
+    const ids = new Map<string, string>();
+    for (const material of DEMO_MATERIALS) {
+      const created = await this.materials.create(materialInputSchema.parse(material));
+      ids.set(material.name, created.id);
+    }
+    for (const { material, ...lot } of DEMO_LOTS) {
+      await this.materials.createLot(
+        lotInputSchema.parse({ ...lot, materialId: ids.get(material) }),
+      );
+    }
+  }
 }

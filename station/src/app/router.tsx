@@ -4,6 +4,7 @@ import { DeskSignIn } from '../features/auth/components/desk-sign-in';
 import { PeoplePage } from '../features/auth/components/people-page';
 import { RequireRole } from '../features/auth/components/require-role';
 import { BenchHomeRoute, BenchRoute } from './routes/bench';
+import { BenchScaleRoute } from './routes/bench-scale';
 import { NotFoundRoute } from './routes/not-found';
 import { PlanRoute } from './routes/plan';
 import { ReviewRoute } from './routes/review';
@@ -36,6 +37,7 @@ export const routes: RouteObject[] = [
         ),
       },
       { path: 'plan', element: <PlanRoute /> },
+      { path: 'bench/:benchId/scale', element: <BenchScaleRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

@@ -1,0 +1,67 @@
+import {
+  Body,
+  ConflictException,
+  Controller,
+  Get,
+  HttpCode,
+  Inject,
+  NotFoundException,
+  Param,
+  Post,
+  UnprocessableEntityException,
+} from '@nestjs/common';
+import {
+  benchIdSchema,
+  simulatorScriptSchema,
+  type BenchSummary,
+  type SimulatorStep,
+} from '@tareline/protocol';
+import { Public, Roles } from '../auth/access.decorator.js';
+import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import {
+  BenchesService,
+  BenchNotFoundError,
+  NotSimulatedError,
+  SimulatorScriptError,
+} from './benches.service.js';
+
+@Controller('benches')
+export class BenchesController {
+  constructor(@Inject(BenchesService) private readonly benches: BenchesService) {}
+
+  /** Needed right after sign-in (which bench am I at, is its scale up). */
+  @Get()
+  @Roles('operator', 'lead', 'admin')
+  list(): Promise<BenchSummary[]> {
+    return this.benches.list();
+  }
+
+  /**
+   * Drives a simulated bench's scale through scripted steps (demos and browser tests). Public:
+   * it only reaches benches whose weights are simulated anyway (409 for a real scale).
+   */
+  @Post(':id/simulator')
+  @HttpCode(200)
+  @Public()
+  async runSimulator(
+    @Param('id', new ZodValidationPipe(benchIdSchema, 'Not a bench id')) id: string,
+    @Body(new ZodValidationPipe(simulatorScriptSchema, 'Not a simulator script'))
+    steps: SimulatorStep[],
+  ): Promise<{ benchId: string; steps: number }> {
+    try {
+      await this.benches.runSimulator(id, steps);
+    } catch (err) {
+      if (err instanceof BenchNotFoundError) {
+        throw new NotFoundException({ message: err.message, errors: [] });
+      }
+      if (err instanceof SimulatorScriptError) {
+        throw new UnprocessableEntityException({ message: err.message, errors: [] });
+      }
+      if (err instanceof NotSimulatedError) {
+        throw new ConflictException({ message: err.message, errors: [] });
+      }
+      throw err;
+    }
+    return { benchId: id, steps: steps.length };
+  }
+}

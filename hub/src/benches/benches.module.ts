@@ -1,0 +1,12 @@
+import { Module } from '@nestjs/common';
+import { ScalesModule } from '../scales/scales.module.js';
+import { BenchesController } from './benches.controller.js';
+import { BenchesService } from './benches.service.js';
+
+@Module({
+  imports: [ScalesModule],
+  controllers: [BenchesController],
+  providers: [BenchesService],
+  exports: [BenchesService],
+})
+export class BenchesModule {}

@@ -1,0 +1,133 @@
+import { Inject, Injectable, Logger, OnApplicationBootstrap } from '@nestjs/common';
+import {
+  parseScaleUrl,
+  ScaleUrlError,
+  type BenchSummary,
+  type ScaleLinkSettings,
+  type SimulatorStep,
+} from '@tareline/protocol';
+import { asc, eq } from 'drizzle-orm';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { Database } from '../database/database.js';
+import { benches } from '../database/schema/index.js';
+import { ScalesService } from '../scales/scales.service.js';
+
+/** The bench every hub has from its first start; its scale comes from `TARELINE_SCALE`. */
+export const DEFAULT_BENCH = { id: 'bench-1', name: 'Bench 1' } as const;
+
+export class BenchNotFoundError extends Error {
+  constructor(readonly benchId: string) {
+    super(`There is no bench "${benchId}"`);
+    this.name = 'BenchNotFoundError';
+  }
+}
+
+/** The simulator endpoint was called for a bench whose scale is real. */
+export class NotSimulatedError extends Error {
+  constructor(readonly benchId: string) {
+    super(`The scale of bench "${benchId}" is not simulated: there is no simulator to drive`);
+    this.name = 'NotSimulatedError';
+  }
+}
+
+/** A script step the simulator could not carry out (a wait that timed out, a stopped hub). */
+export class SimulatorScriptError extends Error {
+  constructor(reason: string) {
+    super(`The simulator script stopped: ${reason}`);
+    this.name = 'SimulatorScriptError';
+  }
+}
+
+/**
+ * The benches and their scale links: makes sure the default bench exists, tells the scales
+ * service which scale each active bench reads, and lists benches with their live scale state.
+ */
+@Injectable()
+export class BenchesService implements OnApplicationBootstrap {
+  private readonly logger = new Logger('Benches');
+
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    @Inject(Database) private readonly database: Database,
+    @Inject(ScalesService) private readonly scales: ScalesService,
+  ) {}
+
+  async onApplicationBootstrap(): Promise<void> {
+    await this.database.db
+      .insert(benches)
+      .values({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name })
+      .onConflictDoNothing();
+    const rows = await this.database.db.select().from(benches).where(eq(benches.active, true));
+    for (const row of rows) {
+      if (!this.scales.has(row.id)) {
+        await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
+      }
+    }
+  }
+
+  /** Adds a bench unless one with its id exists, and starts reading its scale. */
+  async add(bench: typeof benches.$inferInsert): Promise<void> {
+    await this.database.db.insert(benches).values(bench).onConflictDoNothing();
+    const [row] = await this.database.db.select().from(benches).where(eq(benches.id, bench.id));
+    if (row?.active && !this.scales.has(row.id)) {
+      await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
+    }
+  }
+
+  /** A bench's stored URL, else the hub's default; a bad stored URL falls back loudly. */
+  private linkOf(benchId: string, scaleUrl: string | null): ScaleLinkSettings {
+    if (!scaleUrl) return this.config.scale.link;
+    try {
+      return parseScaleUrl(scaleUrl);
+    } catch (err) {
+      if (!(err instanceof ScaleUrlError)) throw err;
+      this.logger.error(`${benchId}: ${err.message}; reading the default scale link instead`);
+      return this.config.scale.link;
+    }
+  }
+
+  async exists(benchId: string): Promise<boolean> {
+    const rows = await this.database.db
+      .select({ id: benches.id })
+      .from(benches)
+      .where(eq(benches.id, benchId));
+    return rows.length > 0 && this.scales.has(benchId);
+  }
+
+  async list(): Promise<BenchSummary[]> {
+    const rows = await this.database.db
+      .select()
+      .from(benches)
+      .where(eq(benches.active, true))
+      .orderBy(asc(benches.id));
+    return rows
+      .filter((row) => this.scales.has(row.id))
+      .map((row) => {
+        const capacityG = this.scales.capacityG(row.id);
+        return {
+          id: row.id,
+          name: row.name,
+          pinRequired: row.pinRequired,
+          idleSignOutMin: row.idleSignOutMin,
+          scale: {
+            ...this.scales.status(row.id),
+            readabilityG: this.scales.readabilityG(row.id),
+            ...(capacityG === undefined ? {} : { capacityG }),
+            transport: this.scales.transport(row.id),
+          },
+        };
+      });
+  }
+
+  /** Runs scripted steps on a simulated bench's simulator; resolves when they are done. */
+  async runSimulator(benchId: string, steps: SimulatorStep[]): Promise<void> {
+    if (!this.scales.has(benchId)) throw new BenchNotFoundError(benchId);
+    const simulator = this.scales.simulator(benchId);
+    if (!simulator) throw new NotSimulatedError(benchId);
+    try {
+      await simulator.runScript(steps);
+    } catch (err) {
+      throw new SimulatorScriptError(err instanceof Error ? err.message : String(err));
+    }
+  }
+}

@@ -1,0 +1,138 @@
+import { Inject, Logger } from '@nestjs/common';
+import {
+  OnGatewayConnection,
+  OnGatewayDisconnect,
+  OnGatewayInit,
+  WebSocketGateway,
+  WebSocketServer,
+} from '@nestjs/websockets';
+import { LIVE_NAMESPACE, type LiveClientEvents, type LiveServerEvents } from '@tareline/protocol';
+import type { Namespace, Socket } from 'socket.io';
+import {
+  SOCKET_AUTHENTICATOR,
+  SocketRefusedError,
+  type SocketAuthenticator,
+  type SocketPrincipal,
+} from '../auth/socket-authenticator.js';
+import { ScalesService } from '../scales/scales.service.js';
+
+interface LiveSocketData {
+  benchId: string;
+  principal: SocketPrincipal;
+}
+
+type LiveNamespace = Namespace<
+  LiveClientEvents,
+  LiveServerEvents,
+  Record<string, never>,
+  LiveSocketData
+>;
+type LiveSocket = Socket<LiveClientEvents, LiveServerEvents, Record<string, never>, LiveSocketData>;
+
+/** How often open sockets are asked again whether their person may still watch. */
+const RECHECK_EVERY_MS = 60_000;
+/** setTimeout's longest delay; a later expiry is caught by the periodic re-check. */
+const MAX_TIMER_MS = 2 ** 31 - 1;
+
+export const benchRoom = (benchId: string) => `bench:${benchId}`;
+
+/**
+ * The live socket `/live`. A client names its bench in the handshake (`query: { benchId }`,
+ * `auth: { token }`); the injected {@link SocketAuthenticator} accepts or refuses it, and an
+ * accepted socket joins the room `bench:<id>` and gets the scale's state and newest reading at
+ * once. Emits go through {@link emitToBench}, type-checked against `LiveServerEvents`.
+ */
+@WebSocketGateway({ namespace: LIVE_NAMESPACE })
+export class LiveGateway
+  implements
+    OnGatewayInit<LiveNamespace>,
+    OnGatewayConnection<LiveSocket>,
+    OnGatewayDisconnect<LiveSocket>
+{
+  private readonly logger = new Logger('Live');
+  private readonly expiryTimers = new Map<string, NodeJS.Timeout>();
+  private recheckTimer: NodeJS.Timeout | undefined;
+
+  @WebSocketServer()
+  private readonly server!: LiveNamespace;
+
+  constructor(
+    @Inject(SOCKET_AUTHENTICATOR) private readonly authenticator: SocketAuthenticator,
+    @Inject(ScalesService) private readonly scales: ScalesService,
+  ) {}
+
+  afterInit(namespace: LiveNamespace): void {
+    namespace.use((socket, next) => {
+      const query = socket.handshake.query.benchId;
+      const benchId = typeof query === 'string' ? query : undefined;
+      const auth = socket.handshake.auth as { token?: unknown } | undefined;
+      const token = typeof auth?.token === 'string' ? auth.token : undefined;
+      if (!benchId) {
+        next(new Error("Name the bench in the handshake: io('/live', { query: { benchId } })"));
+        return;
+      }
+      if (!this.scales.has(benchId)) {
+        next(new Error(`There is no bench "${benchId}"`));
+        return;
+      }
+      this.authenticator.authenticate({ token, benchId }).then(
+        (principal) => {
+          socket.data = { benchId, principal };
+          next();
+        },
+        (err: unknown) => {
+          if (!(err instanceof SocketRefusedError)) {
+            this.logger.error(err instanceof Error ? err : String(err));
+          }
+          next(new Error(err instanceof SocketRefusedError ? err.message : 'Refused by the hub'));
+        },
+      );
+    });
+    this.recheckTimer = setInterval(() => void this.recheck(), RECHECK_EVERY_MS);
+    this.recheckTimer.unref();
+  }
+
+  async handleConnection(socket: LiveSocket): Promise<void> {
+    const { benchId, principal } = socket.data;
+    await socket.join(benchRoom(benchId));
+    const untilExpiry = principal.expiresAt - Date.now();
+    if (untilExpiry < MAX_TIMER_MS) {
+      const timer = setTimeout(() => socket.disconnect(true), Math.max(0, untilExpiry));
+      this.expiryTimers.set(socket.id, timer);
+    }
+    if (this.scales.has(benchId)) {
+      socket.emit('scaleStatus', this.scales.status(benchId));
+      const latest = this.scales.latest(benchId);
+      if (latest) socket.emit('reading', latest);
+    }
+  }
+
+  handleDisconnect(socket: LiveSocket): void {
+    clearTimeout(this.expiryTimers.get(socket.id));
+    this.expiryTimers.delete(socket.id);
+  }
+
+  /** Sends an event to every screen watching a bench. */
+  emitToBench<E extends keyof LiveServerEvents>(
+    benchId: string,
+    event: E,
+    ...payload: Parameters<LiveServerEvents[E]>
+  ): void {
+    this.server?.to(benchRoom(benchId)).emit(event, ...payload);
+  }
+
+  /** Stops the periodic re-check (the app is closing). */
+  close(): void {
+    clearInterval(this.recheckTimer);
+    for (const timer of this.expiryTimers.values()) clearTimeout(timer);
+    this.expiryTimers.clear();
+  }
+
+  private async recheck(): Promise<void> {
+    const sockets = await this.server.fetchSockets();
+    for (const socket of sockets) {
+      const ok = await this.authenticator.stillValid(socket.data.principal).catch(() => false);
+      if (!ok) socket.disconnect(true);
+    }
+  }
+}

@@ -1,0 +1,12 @@
+import { Module } from '@nestjs/common';
+import { ScalesModule } from '../scales/scales.module.js';
+import { LiveGateway } from './live.gateway.js';
+import { LiveService } from './live.service.js';
+
+/** The live socket `/live`. Needs a SOCKET_AUTHENTICATOR from a global module. */
+@Module({
+  imports: [ScalesModule],
+  providers: [LiveGateway, LiveService],
+  exports: [LiveGateway],
+})
+export class LiveModule {}

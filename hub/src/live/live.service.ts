@@ -1,0 +1,42 @@
+import { Inject, Injectable, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
+import type { ReadingEvent } from '@tareline/protocol';
+import { ScalesService } from '../scales/scales.service.js';
+import { LiveGateway } from './live.gateway.js';
+import { TrailingThrottle } from './reading-throttle.js';
+
+/** 25 readings a second per bench at most: more than a screen can show, and it never drops the newest. */
+export const MAX_READINGS_PER_S = 25;
+
+/** Forwards every bench's scale readings and states to its room on the live socket. */
+@Injectable()
+export class LiveService implements OnModuleInit, OnApplicationShutdown {
+  private readonly throttles = new Map<string, TrailingThrottle<ReadingEvent>>();
+
+  constructor(
+    @Inject(ScalesService) private readonly scales: ScalesService,
+    @Inject(LiveGateway) private readonly gateway: LiveGateway,
+  ) {}
+
+  onModuleInit(): void {
+    // Benches attach their scales at bootstrap, after this: follow each link as it comes.
+    this.scales.onAttach((benchId) => this.follow(benchId));
+    for (const benchId of this.scales.benchIds()) this.follow(benchId);
+  }
+
+  private follow(benchId: string): void {
+    this.throttles.get(benchId)?.dispose();
+    const throttle = new TrailingThrottle<ReadingEvent>(1000 / MAX_READINGS_PER_S, (reading) =>
+      this.gateway.emitToBench(benchId, 'reading', reading),
+    );
+    this.throttles.set(benchId, throttle);
+    this.scales.onReading(benchId, (reading) => throttle.push(reading));
+    this.scales.onStatus(benchId, (status) =>
+      this.gateway.emitToBench(benchId, 'scaleStatus', status),
+    );
+  }
+
+  onApplicationShutdown(): void {
+    for (const throttle of this.throttles.values()) throttle.dispose();
+    this.gateway.close();
+  }
+}

@@ -1,0 +1,86 @@
+import {
+  LIVE_NAMESPACE,
+  readingEventSchema,
+  scaleStatusEventSchema,
+  type LiveClientEvents,
+  type LiveServerEvents,
+  type ReadingEvent,
+  type ScaleStatusEvent,
+} from '@tareline/protocol';
+import { useEffect, useState } from 'react';
+import { io, type Socket } from 'socket.io-client';
+
+export interface LiveBench {
+  /** The newest reading the hub sent; undefined until the first one. */
+  reading: ReadingEvent | undefined;
+  /** The scale's state as the hub sees it; `connecting` until the hub says otherwise. */
+  status: ScaleStatusEvent;
+  /** Whether this screen's socket to the hub is up. */
+  connected: boolean;
+  /** Why the hub refused the socket (unknown bench, sign-in needed), if it did. */
+  refused: string | undefined;
+}
+
+type LiveSocket = Socket<LiveServerEvents, LiveClientEvents>;
+
+/**
+ * The live weights and scale state of one bench, over socket.io. The hub throttles readings to
+ * 25 a second; every one replaces the last (no history kept here).
+ */
+export function useLiveBench(benchId: string, options: { token?: string } = {}): LiveBench {
+  const { token } = options;
+  const [state, setState] = useState<{ benchId: string } & LiveBench>(() => initial(benchId));
+
+  useEffect(() => {
+    // Patches the state of this bench; a state left from another bench starts over.
+    const update = (patch: Partial<LiveBench>) =>
+      setState((s) => ({ ...(s.benchId === benchId ? s : initial(benchId)), ...patch }));
+    const socket: LiveSocket = io(LIVE_NAMESPACE, {
+      query: { benchId },
+      auth: token ? { token } : {},
+      transports: ['websocket'],
+    });
+    socket.on('connect', () => update({ connected: true, refused: undefined }));
+    socket.on('disconnect', () =>
+      // Without the hub there is no scale state to trust.
+      update({
+        connected: false,
+        status: { benchId, state: 'offline', detail: 'The hub cannot be reached' },
+      }),
+    );
+    socket.on('connect_error', (err) => {
+      // `active` is false when the hub refused the handshake: socket.io will not retry then.
+      const refused = socket.active ? undefined : err.message;
+      update({
+        connected: false,
+        refused,
+        status: { benchId, state: 'offline', detail: refused ?? 'The hub cannot be reached' },
+      });
+    });
+    socket.on('reading', (event) => {
+      const parsed = readingEventSchema.safeParse(event);
+      if (parsed.success && parsed.data.benchId === benchId) update({ reading: parsed.data });
+    });
+    socket.on('scaleStatus', (event) => {
+      const parsed = scaleStatusEventSchema.safeParse(event);
+      if (parsed.success && parsed.data.benchId === benchId) update({ status: parsed.data });
+    });
+    return () => {
+      socket.removeAllListeners();
+      socket.disconnect();
+    };
+  }, [benchId, token]);
+
+  const { benchId: _shownBench, ...live } = state.benchId === benchId ? state : initial(benchId);
+  return live;
+}
+
+function initial(benchId: string): { benchId: string } & LiveBench {
+  return {
+    benchId,
+    reading: undefined,
+    status: { benchId, state: 'connecting', detail: 'Connecting to the hub…' },
+    connected: false,
+    refused: undefined,
+  };
+}
