@@ -13,6 +13,7 @@ import { SimulatedScale } from '@tareline/simulator';
 import { SerialPort } from 'serialport';
 import { io, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO, login } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 
 async function until(what: string, check: () => boolean, timeoutMs = 10_000): Promise<void> {
@@ -108,7 +109,13 @@ describe('a scale on a real pseudo-terminal, read by the hub and seen on the liv
     hub = await startTestHub(data.dir, {
       TARELINE_SCALE: `serial://${pty.hubEnd}?baud=9600&format=auto`,
     });
-    socket = io(`${hub.url}/live`, { query: { benchId: 'bench-1' }, transports: ['websocket'] });
+    // The live socket needs a signed-in person; a lead may watch any bench.
+    const token = await login(hub, DEMO.lead.email, DEMO.lead.password);
+    socket = io(`${hub.url}/live`, {
+      query: { benchId: 'bench-1' },
+      auth: { token },
+      transports: ['websocket'],
+    });
     socket.on('reading', (r) => readings.push(r));
     socket.on('scaleStatus', (s) => states.push({ ...s, at: Date.now() }));
   });
@@ -124,7 +131,8 @@ describe('a scale on a real pseudo-terminal, read by the hub and seen on the liv
   });
 
   it('recognises the format and delivers the scripted pour in order', async () => {
-    await until('online', () => states.at(-1)?.state === 'online');
+    // The first start compiles and opens the port under a busy CI machine: give it time.
+    await until('online', () => states.at(-1)?.state === 'online', 30_000);
     expect(states.at(-1)?.detail).toMatch(/headered lines \(recognised\)/);
     const from = readings.length;
     await simulator.runScript([
@@ -159,7 +167,8 @@ describe('a scale on a real pseudo-terminal, read by the hub and seen on the liv
   });
 
   it('goes offline when the pty closes and is online again within 3 s of replugging', async () => {
-    await until('online', () => states.at(-1)?.state === 'online');
+    // The first start compiles and opens the port under a busy CI machine: give it time.
+    await until('online', () => states.at(-1)?.state === 'online', 30_000);
     await detach();
     await pty.unplug();
     await until('offline', () => states.at(-1)?.state === 'offline');

@@ -19,7 +19,11 @@ describe('the live-scale page in Chromium', () => {
 
   it("shows the simulator's weight changing as a cup is placed and part A poured", async () => {
     const page = await browser.context.newPage();
+    // A signed-out visitor is sent to the desk sign-in and back (demo lead, README).
     await page.goto(`${hub.url}/bench/bench-1/scale`);
+    await page.getByLabel('E-mail').fill('ilse.varga@hollin-ridge.example');
+    await page.getByLabel('Password').fill('ridge-lead-demo');
+    await page.getByRole('button', { name: /sign in/i }).click();
     await page.getByRole('heading', { name: 'Live scale' }).waitFor();
     await page.getByText('Scale: online').waitFor({ timeout: 15_000 });
     const weight = page.getByTestId('net-weight');

@@ -37,7 +37,15 @@ export const routes: RouteObject[] = [
         ),
       },
       { path: 'plan', element: <PlanRoute /> },
-      { path: 'bench/:benchId/scale', element: <BenchScaleRoute /> },
+      {
+        // Setting up and checking a scale is desk work for leads and admins.
+        path: 'bench/:benchId/scale',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <BenchScaleRoute />
+          </RequireRole>
+        ),
+      },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

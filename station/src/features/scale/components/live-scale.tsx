@@ -1,3 +1,4 @@
+import { useSession } from '../../../lib/auth';
 import { useBenches } from '../api/get-benches';
 import { useLiveBench } from '../hooks/use-live-bench';
 import { Gauge } from './gauge';
@@ -6,7 +7,8 @@ const TRANSPORT_SHOWN = { serial: 'serial port', tcp: 'network adapter', simulat
 
 /** One bench's scale: how it is reached, its live state and the gauge. */
 export function LiveScale({ benchId }: { benchId: string }) {
-  const live = useLiveBench(benchId);
+  const session = useSession();
+  const live = useLiveBench(benchId, { token: session?.token });
   const benches = useBenches();
   const bench = benches.data?.find((b) => b.id === benchId);
 
