@@ -256,14 +256,14 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
       if (!isWeighing(rec.state) || !rec.active) return markTared(rec, nowIso());
       const latest = this.scales.latest(session.row.benchId);
       const poured = rec.active.tared && latest ? latest.netG : 0;
-      // A re-tare mid-pour would silently drop what is in this pour already.
-      if (rec.active.part > 0 || rec.active.kind === 'top-up') {
-        if (poured > Math.max(0.5, 10 * rec.readabilityG)) {
-          throw new BatchRefusal(
-            `${poured.toFixed(2)} g are in this pour already: taring now would lose them`,
-            'WRONG_STATE',
-          );
-        }
+      // A re-tare mid-pour would silently drop what is in this pour already, part A included:
+      // the record would then hold only what is poured after it. An empty cup swapped for
+      // another reads at or below zero and may be tared again.
+      if (poured > Math.max(0.5, 10 * rec.readabilityG)) {
+        throw new BatchRefusal(
+          `${poured.toFixed(2)} g are in this pour already: taring now would lose them`,
+          'WRONG_STATE',
+        );
       }
       await this.tareScale(session.row.benchId);
       return markTared(rec, nowIso());
