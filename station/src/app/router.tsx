@@ -3,6 +3,8 @@ import { AppShell } from '../components/layout/app-shell';
 import { DeskSignIn } from '../features/auth/components/desk-sign-in';
 import { PeoplePage } from '../features/auth/components/people-page';
 import { RequireRole } from '../features/auth/components/require-role';
+import { BatchDetail } from '../features/review/components/batch-detail';
+import { BatchesPage } from '../features/review/components/batches-page';
 import { BenchHomeRoute, BenchRoute } from './routes/bench';
 import { BenchScaleRoute } from './routes/bench-scale';
 import { NotFoundRoute } from './routes/not-found';
@@ -25,6 +27,23 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['lead', 'admin']}>
             <ReviewRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'review/batches',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <BatchesPage />
+          </RequireRole>
+        ),
+      },
+      {
+        // Also what the QR code on a cup label opens: anyone signed in on the floor may look.
+        path: 'review/batches/:batchId',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <BatchDetail />
           </RequireRole>
         ),
       },

@@ -10,7 +10,12 @@ export function ReviewRoute() {
         Review
       </h1>
       <p className="mt-2 text-lg text-muted">
-        Batches, materials and lots for leads. These pages are being built.
+        Batches, materials and lots for leads. Material and lot management are being built.
+      </p>
+      <p className="mt-4 text-lg">
+        <Link className="underline" to="/review/batches">
+          Batches
+        </Link>
       </p>
       {hasRole(session, ['admin']) && (
         <p className="mt-4 text-lg">

@@ -1,0 +1,123 @@
+import type { Batch } from '@tareline/protocol';
+import { screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, it } from 'vitest';
+import { routes } from '../../../app/router';
+import { setSession } from '../../../lib/auth';
+import { signInAnswer, stubHub } from '../../../testing/fake-hub';
+import { renderRoutes } from '../../../testing/render';
+
+function batch(overrides: Partial<Batch> = {}): Batch {
+  return {
+    id: 12,
+    state: 'saved',
+    verdict: 'GO',
+    benchId: 'bench-1',
+    materialId: 'm-sc14',
+    materialName: 'Grey surface-coat epoxy SC-14',
+    operator: { id: 'p-joss', name: 'Joss Whitcombe' },
+    totalMassG: 114,
+    weightRatio: [100, 14],
+    parts: [
+      { label: 'Part A', targetG: 100, actualG: 100.0 },
+      { label: 'Part B', targetG: 14, actualG: 14.1 },
+    ],
+    active: null,
+    rescue: null,
+    ratioDeviationPct: 0.714,
+    tolerancePct: 1,
+    readabilityG: 0.01,
+    lots: [
+      {
+        part: 1,
+        code: 'SC14H-2511',
+        lotId: 'l-2',
+        warnings: [{ code: 'LOT_EXPIRED', message: 'Lot SC14H-2511 expired on 2026-11-30' }],
+      },
+    ],
+    potLifeMin: 25,
+    potLifeMassG: 100,
+    abandonReason: null,
+    interruptedReason: null,
+    steps: {
+      created: '2026-12-02T08:00:00.000Z',
+      confirmedA: '2026-12-02T08:01:00.000Z',
+      saved: '2026-12-02T08:02:00.000Z',
+    },
+    createdAt: '2026-12-02T08:00:00.000Z',
+    savedAt: '2026-12-02T08:02:00.000Z',
+    ...overrides,
+  };
+}
+
+afterEach(() => setSession(null));
+
+describe('batch review', () => {
+  it('lists batches with their outcome and filters by state', async () => {
+    setSession(signInAnswer({ name: 'Ilse Varga', role: 'lead' }));
+    const requests = stubHub({
+      'GET /batches?limit=200': () => [
+        200,
+        [
+          batch(),
+          batch({ id: 11, verdict: 'NO-GO', ratioDeviationPct: 2.5 }),
+          batch({ id: 10, state: 'abandoned', verdict: null, ratioDeviationPct: null }),
+        ],
+      ],
+      'GET /batches?state=abandoned&limit=200': () => [
+        200,
+        [batch({ id: 10, state: 'abandoned', verdict: null, ratioDeviationPct: null })],
+      ],
+    });
+    renderRoutes(routes, '/review/batches');
+    const rows = await screen.findAllByRole('row');
+    expect(rows).toHaveLength(4);
+    expect(within(rows[1]!).getByText('GO')).toBeInTheDocument();
+    expect(within(rows[1]!).getByText('+0.71 %')).toBeInTheDocument();
+    expect(within(rows[2]!).getByText('NO-GO')).toBeInTheDocument();
+    expect(within(rows[3]!).getByText('Abandoned')).toBeInTheDocument();
+
+    await userEvent.selectOptions(screen.getByLabelText('Show'), 'abandoned');
+    await screen.findByText('Abandoned');
+    expect(await screen.findAllByRole('row')).toHaveLength(2);
+    expect(requests.map((r) => r.path)).toContain('/batches?state=abandoned&limit=200');
+  });
+
+  it('shows one batch: parts as weighed, lot warnings, deviation against the band, the trace', async () => {
+    setSession(signInAnswer({ name: 'Joss Whitcombe', role: 'operator' }, { id: 'bench-1' }));
+    stubHub({
+      'GET /batches/12': () => [
+        200,
+        batch({
+          trace: [
+            [0, 0],
+            [1000, 50],
+            [2000, 100],
+            [3000, 0],
+            [4000, 14.1],
+          ],
+        }),
+      ],
+    });
+    renderRoutes(routes, '/review/batches/12');
+    expect(await screen.findByRole('heading', { name: 'Batch 12' })).toBeInTheDocument();
+    const partB = screen.getByRole('row', { name: /Part B/ });
+    expect(within(partB).getByText('14.00 g')).toBeInTheDocument();
+    expect(within(partB).getByText('14.10 g')).toBeInTheDocument();
+    expect(within(partB).getByText('Lot SC14H-2511 expired on 2026-11-30')).toBeInTheDocument();
+    expect(screen.getByText('+0.71 % (tolerance ±1 %)')).toBeInTheDocument();
+    expect(
+      screen.getByRole('img', { name: /5 readings over 4 s, highest 100\.0 g/ }),
+    ).toBeInTheDocument();
+    expect(screen.getByText('Part A done')).toBeInTheDocument();
+  });
+
+  it('says so when the batch does not exist', async () => {
+    setSession(signInAnswer({ name: 'Ilse Varga', role: 'lead' }));
+    stubHub({ 'GET /batches/99': () => [404, { message: 'No batch 99', errors: [] }] });
+    renderRoutes(routes, '/review/batches/99');
+    expect(await screen.findByRole('alert')).toHaveTextContent(
+      'Batch 99 cannot be shown: No batch 99',
+    );
+  });
+});

@@ -1,0 +1,24 @@
+/** Decimal places that show a scale interval d: 0.01 g → 2, 0.1 g → 1, 1 g → 0. */
+export function decimalsOf(readabilityG: number): number {
+  if (!(readabilityG > 0)) return 2;
+  return Math.max(0, Math.ceil(-Math.log10(readabilityG) - 1e-9));
+}
+
+/** A signed percentage with a true minus sign, e.g. "+0.71 %". */
+export function signedPct(pct: number, decimals = 2): string {
+  const text = pct.toFixed(decimals);
+  if (Number(text) === 0) return `${(0).toFixed(decimals)} %`;
+  return `${pct > 0 ? '+' : '\u2212'}${text.replace('-', '')} %`;
+}
+
+/** A local date and time for the review tables, to the minute. */
+export function shownTime(iso: string | null | undefined): string {
+  if (!iso) return '\u2013';
+  return new Date(iso).toLocaleString(undefined, {
+    year: 'numeric',
+    month: 'short',
+    day: 'numeric',
+    hour: '2-digit',
+    minute: '2-digit',
+  });
+}
