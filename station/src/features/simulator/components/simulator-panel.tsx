@@ -1,0 +1,140 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { SimulatorStep } from '@tareline/protocol';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { useRunSimulator } from '../api/run-simulator';
+
+const button =
+  'min-h-14 rounded-xl border-2 border-steel px-4 text-lg font-semibold disabled:opacity-50';
+
+/** Pours offered as one press: a fast pour, then smaller and slower ones to creep up on a target. */
+const QUICK_POURS = [
+  { grams: 50, rateGPerS: 10 },
+  { grams: 10, rateGPerS: 5 },
+  { grams: 1, rateGPerS: 1 },
+  { grams: 0.1, rateGPerS: 0.2 },
+];
+
+const pourFormSchema = z.object({
+  grams: z.coerce
+    .number({ error: 'Enter the grams to pour' })
+    .positive({ error: 'Pour more than 0 g' })
+    .max(10_000, { error: 'At most 10 000 g at once' }),
+});
+
+/**
+ * Hands for a bench whose scale is the simulator (no balance connected): place and lift a cup,
+ * pour, unplug the cable. What the hub then reads is what a real balance would print.
+ */
+export function SimulatorPanel({ benchId }: { benchId: string }) {
+  const run = useRunSimulator(benchId);
+  const form = useForm<z.input<typeof pourFormSchema>, unknown, z.output<typeof pourFormSchema>>({
+    resolver: zodResolver(pourFormSchema),
+    defaultValues: { grams: '' as unknown as number },
+  });
+  const send = (steps: SimulatorStep[]) => run.mutate(steps);
+  const pour = (grams: number, rateGPerS: number) =>
+    send([{ do: 'pour', grams, rateGPerS }, { do: 'settle' }]);
+
+  return (
+    <section
+      aria-labelledby={`simulator-${benchId}`}
+      className="rounded-xl border-2 border-dashed border-line p-4"
+    >
+      <h2 id={`simulator-${benchId}`} className="text-xl font-semibold">
+        Simulated scale
+      </h2>
+      <p className="mb-3 text-muted">
+        No balance is connected to this bench: these buttons act on the simulator the hub reads.
+      </p>
+      <div className="flex flex-wrap gap-2">
+        <button
+          type="button"
+          className={button}
+          disabled={run.isPending}
+          onClick={() => send([{ do: 'place-cup', massG: 40 }, { do: 'settle' }])}
+        >
+          Place a 40 g cup
+        </button>
+        <button
+          type="button"
+          className={button}
+          disabled={run.isPending}
+          onClick={() => send([{ do: 'lift-cup' }])}
+        >
+          Lift the cup
+        </button>
+        <button
+          type="button"
+          className={button}
+          disabled={run.isPending}
+          onClick={() => send([{ do: 'return-cup' }, { do: 'settle' }])}
+        >
+          Put the cup back
+        </button>
+        {QUICK_POURS.map(({ grams, rateGPerS }) => (
+          <button
+            key={grams}
+            type="button"
+            className={button}
+            disabled={run.isPending}
+            onClick={() => pour(grams, rateGPerS)}
+          >
+            Pour {grams} g
+          </button>
+        ))}
+        <button
+          type="button"
+          className={button}
+          disabled={run.isPending}
+          onClick={() => send([{ do: 'unplug' }])}
+        >
+          Unplug the cable
+        </button>
+        <button
+          type="button"
+          className={button}
+          disabled={run.isPending}
+          onClick={() => send([{ do: 'replug' }])}
+        >
+          Plug it back
+        </button>
+      </div>
+      <form
+        noValidate
+        className="mt-3 flex flex-wrap items-start gap-2"
+        onSubmit={form.handleSubmit(({ grams }) => {
+          // A realistic flow: fast for big pours, a trickle for small ones.
+          pour(grams, Math.min(20, Math.max(0.2, grams / 5)));
+          form.reset();
+        })}
+      >
+        <label className="flex items-center gap-2 text-lg">
+          Pour
+          <input
+            inputMode="decimal"
+            className="min-h-14 w-28 rounded-lg border border-line bg-panel px-3 text-lg"
+            aria-invalid={form.formState.errors.grams ? true : undefined}
+            aria-describedby={form.formState.errors.grams ? 'sim-grams-error' : undefined}
+            {...form.register('grams')}
+          />
+          g
+        </label>
+        <button type="submit" className={button} disabled={run.isPending}>
+          Pour it
+        </button>
+        {form.formState.errors.grams && (
+          <p id="sim-grams-error" role="alert" className="w-full text-over">
+            {form.formState.errors.grams.message}
+          </p>
+        )}
+      </form>
+      {run.isPending && <p className="mt-2 text-muted">The simulator is busy…</p>}
+      {run.isError && (
+        <p role="alert" className="mt-2 text-over">
+          {run.error.message}
+        </p>
+      )}
+    </section>
+  );
+}
