@@ -345,3 +345,75 @@ describe('a hub that stops during part B', () => {
     }
   });
 });
+
+describe('a hub restarted with batches in every state', () => {
+  it('keeps finished batches as they were, interrupts weighing ones once, and resumes them', async () => {
+    const data = await tempDataDir();
+    try {
+      let hub = await startTestHub(data.dir, ENV);
+      const joss = await badgeSignIn(hub, DEMO.joss.badge);
+      const tomas = await badgeSignIn(hub, DEMO.tomas.badge, DEMO.tomas.pin, 'bench-2');
+      const materials = await call<Material[]>(hub, 'GET', '/api/materials', {
+        token: joss.body.token,
+      });
+      const sc14 = materials.body.find((m) => m.name.includes('SC-14'))!;
+      const start = (token: string, benchId: string) =>
+        call<Batch>(hub, 'POST', '/api/batches', {
+          token,
+          body: { benchId, materialId: sc14.id, totalMassG: 57 },
+        });
+
+      // abandoned, then weighing-a (not tared yet) on bench-1; interrupted on bench-2.
+      const abandoned = await start(joss.body.token, 'bench-1');
+      await call(hub, 'POST', `/api/batches/${abandoned.body.id}/abandon`, {
+        token: joss.body.token,
+        body: { reason: 'Wrong material chosen' },
+      });
+      const weighing = await start(joss.body.token, 'bench-1');
+      const unplugged = await start(tomas.body.token, 'bench-2');
+      await call(hub, 'POST', '/api/benches/bench-2/simulator', { body: [{ do: 'unplug' }] });
+      const batchesOf = hub.app.get(BatchesService);
+      await until(
+        'bench-2 interrupted',
+        () => batchesOf.current('bench-2')?.state === 'interrupted',
+        30_000,
+      );
+      await hub.close();
+
+      hub = await startTestHub(data.dir, ENV);
+      try {
+        const lead = await login(hub, DEMO.lead.email, DEMO.lead.password);
+        const get = (id: number) => call<Batch>(hub, 'GET', `/api/batches/${id}`, { token: lead });
+        expect((await get(abandoned.body.id)).body).toMatchObject({
+          state: 'abandoned',
+          abandonReason: 'Wrong material chosen',
+        });
+        const w = (await get(weighing.body.id)).body;
+        expect(w).toMatchObject({ state: 'interrupted', interruptedReason: /hub restarted/ });
+        // Interrupted before the restart: it keeps its own reason, not a second one.
+        const u = (await get(unplugged.body.id)).body;
+        expect(u).toMatchObject({ state: 'interrupted', interruptedReason: /scale went offline/ });
+
+        await until(
+          'online',
+          () => hub.app.get(ScalesService).status('bench-1').state === 'online',
+        );
+        const resumed = await call<Batch>(hub, 'POST', `/api/batches/${w.id}/resume`, {
+          token: lead,
+        });
+        expect(resumed.status).toBe(201);
+        // Nothing was poured before the restart: part A starts over, to be tared by the operator.
+        expect(resumed.body).toMatchObject({
+          state: 'weighing-a',
+          active: { part: 0, tared: false },
+        });
+        expect(resumed.body.parts[0]!.actualG).toBeNull();
+        expect(resumed.body.active!.targetG).toBeCloseTo(50, 1);
+      } finally {
+        await hub.close();
+      }
+    } finally {
+      await data.remove();
+    }
+  });
+});
