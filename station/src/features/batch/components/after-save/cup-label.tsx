@@ -23,14 +23,14 @@ export function CupLabel({ batch, url, useBy }: CupLabelProps) {
       part.actualG === null ? 'not poured' : gramsText(part.actualG, batch.readabilityG),
     ]),
     ...batch.lots.map((lot): [string, string] => [
-      `Lot ${partName(lot.part, batch.parts[lot.part]?.label)}`,
+      `Lot ${'ABC'[lot.part] ?? lot.part + 1}`,
       lot.code,
     ]),
     [
       'Ratio',
       batch.ratioDeviationPct === null
         ? 'not judged'
-        : `${signedPct(batch.ratioDeviationPct)} (band ±${batch.tolerancePct} %)`,
+        : `${signedPct(batch.ratioDeviationPct)} (band ±${batch.tolerancePct}\u00a0%)`,
     ],
     ['Operator', batch.operator.name],
     ['Mixed', batch.savedAt ? formatClock(new Date(batch.savedAt)) : 'not saved'],
@@ -47,7 +47,10 @@ export function CupLabel({ batch, url, useBy }: CupLabelProps) {
         <div className="min-w-0">
           <p className="text-[16pt] leading-none font-bold">Batch {batch.id}</p>
           <p className="mt-[1mm] font-semibold break-words">{batch.materialName}</p>
-          <p className="mt-[1mm] text-[13pt]">
+          {/* NO-GO printed white on black: unmistakable on a monochrome label. */}
+          <p
+            className={`mt-[1mm] inline-block text-[13pt] ${batch.verdict === 'NO-GO' ? 'bg-black px-[1.5mm] text-white' : ''}`}
+          >
             {batch.verdict ? (
               <VerdictMark verdict={batch.verdict} className="h-[5mm] w-[5mm]" />
             ) : (
@@ -63,11 +66,11 @@ export function CupLabel({ batch, url, useBy }: CupLabelProps) {
           className="h-[18mm] w-[18mm] shrink-0"
         />
       </header>
-      <dl className="mt-[2mm] grid grid-cols-[auto_1fr] gap-x-[2mm]">
+      <dl className="mt-[2mm] grid grid-cols-[20mm_1fr] gap-x-[2mm]">
         {rows.map(([term, value], i) => (
           <div key={i} className="contents">
             <dt className="font-semibold">{term}</dt>
-            <dd className="text-right break-all">{value}</dd>
+            <dd className="[overflow-wrap:anywhere]">{value}</dd>
           </div>
         ))}
       </dl>

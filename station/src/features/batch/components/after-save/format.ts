@@ -10,7 +10,7 @@ export function partName(index: number, label: string | undefined): string {
   return !label || label.startsWith(letter) ? (label ?? letter) : `${letter} (${label})`;
 }
 
-/** A signed percentage with two decimals, e.g. +0.71 %. */
+/** A signed percentage with two decimals, e.g. +0.71 %, kept on one line. */
 export function signedPct(pct: number): string {
-  return `${pct > 0 ? '+' : pct < 0 ? '\u2212' : '±'}${Math.abs(pct).toFixed(2)} %`;
+  return `${pct > 0 ? '+' : pct < 0 ? '\u2212' : '±'}${Math.abs(pct).toFixed(2)}\u00a0%`;
 }

@@ -143,8 +143,8 @@ describe('SavedBatch', () => {
     const row = (term: string) => within(label).getByText(term).nextElementSibling;
     expect(row('Part A (Resin)')).toHaveTextContent('100.00 g');
     expect(row('Part B (Hardener)')).toHaveTextContent('14.10 g');
-    expect(row('Lot Part A (Resin)')).toHaveTextContent('HRP-R-2611');
-    expect(row('Lot Part B (Hardener)')).toHaveTextContent('HRP-H-2702');
+    expect(row('Lot A')).toHaveTextContent('HRP-R-2611');
+    expect(row('Lot B')).toHaveTextContent('HRP-H-2702');
     expect(row('Operator')).toHaveTextContent('Wren Ashby');
     expect(row('Mixed')).toHaveTextContent('2027-03-04 14:05');
     expect(row('Use by')).toHaveTextContent('2027-03-04 14:30');
