@@ -84,4 +84,24 @@ describe('app shell', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Dark theme' }));
     expect(document.documentElement).toHaveAttribute('data-theme', 'light');
   });
+
+  it('follows a device set to dark until someone chooses', async () => {
+    answerHealth(HEALTHY);
+    vi.stubGlobal('matchMedia', (query: string) => ({
+      matches: query === '(prefers-color-scheme: dark)',
+      addEventListener: () => {},
+      removeEventListener: () => {},
+    }));
+    renderRoutes(routes, '/bench');
+    const toggle = await screen.findByRole('button', { name: 'Dark theme' });
+    expect(toggle).toHaveAttribute('aria-pressed', 'true');
+    // No choice stored: the page leaves the theme to the device (index.css follows it).
+    expect(document.documentElement).not.toHaveAttribute('data-theme');
+    expect(localStorage.getItem('tareline.theme')).toBeNull();
+
+    await userEvent.click(toggle);
+    expect(toggle).toHaveAttribute('aria-pressed', 'false');
+    expect(document.documentElement).toHaveAttribute('data-theme', 'light');
+    expect(localStorage.getItem('tareline.theme')).toBe('light');
+  });
 });
