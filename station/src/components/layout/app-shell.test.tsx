@@ -17,18 +17,16 @@ function answerHealth(body: unknown, status = 200) {
   );
 }
 
+// What a hub with a working database answers.
+const HEALTHY = { status: 'ok', version: '0.1.0', uptimeS: 3, db: { ok: true, driver: 'pglite' } };
+
 afterEach(() => {
   vi.unstubAllGlobals();
 });
 
 describe('app shell', () => {
   it('opens on the bench sign-in, shows both areas and says the hub is connected', async () => {
-    answerHealth({
-      status: 'ok',
-      version: '0.1.0',
-      uptimeS: 3,
-      db: { ok: true, driver: 'pglite' },
-    });
+    answerHealth(HEALTHY);
     renderRoutes(routes, '/');
     expect(await screen.findByRole('heading', { name: 'Scan your badge' })).toBeInTheDocument();
     const nav = screen.getByRole('navigation', { name: 'Areas' });
@@ -38,12 +36,7 @@ describe('app shell', () => {
   });
 
   it('sends a signed-out visitor of the review area to the desk sign-in', async () => {
-    answerHealth({
-      status: 'ok',
-      version: '0.1.0',
-      uptimeS: 3,
-      db: { ok: true, driver: 'pglite' },
-    });
+    answerHealth(HEALTHY);
     renderRoutes(routes, '/bench');
     await userEvent.click(screen.getByRole('link', { name: 'Review' }));
     expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
@@ -67,5 +60,48 @@ describe('app shell', () => {
     );
     renderRoutes(routes, '/bench');
     expect(await screen.findByText('Hub: not reachable')).toBeInTheDocument();
+  });
+
+  it('switches to the dark theme from the header and remembers it on this screen', async () => {
+    answerHealth(HEALTHY);
+    const first = renderRoutes(routes, '/bench');
+    const toggle = await screen.findByRole('button', { name: 'Dark theme' });
+    expect(toggle).toHaveAttribute('aria-pressed', 'false');
+    await userEvent.click(toggle);
+    expect(toggle).toHaveAttribute('aria-pressed', 'true');
+    expect(document.documentElement).toHaveAttribute('data-theme', 'dark');
+
+    // A reload of the bench screen comes back dark.
+    first.unmount();
+    delete document.documentElement.dataset.theme;
+    renderRoutes(routes, '/bench');
+    expect(await screen.findByRole('button', { name: 'Dark theme' })).toHaveAttribute(
+      'aria-pressed',
+      'true',
+    );
+    expect(document.documentElement).toHaveAttribute('data-theme', 'dark');
+
+    await userEvent.click(screen.getByRole('button', { name: 'Dark theme' }));
+    expect(document.documentElement).toHaveAttribute('data-theme', 'light');
+  });
+
+  it('follows a device set to dark until someone chooses', async () => {
+    answerHealth(HEALTHY);
+    vi.stubGlobal('matchMedia', (query: string) => ({
+      matches: query === '(prefers-color-scheme: dark)',
+      addEventListener: () => {},
+      removeEventListener: () => {},
+    }));
+    renderRoutes(routes, '/bench');
+    const toggle = await screen.findByRole('button', { name: 'Dark theme' });
+    expect(toggle).toHaveAttribute('aria-pressed', 'true');
+    // No choice stored: the page leaves the theme to the device (index.css follows it).
+    expect(document.documentElement).not.toHaveAttribute('data-theme');
+    expect(localStorage.getItem('tareline.theme')).toBeNull();
+
+    await userEvent.click(toggle);
+    expect(toggle).toHaveAttribute('aria-pressed', 'false');
+    expect(document.documentElement).toHaveAttribute('data-theme', 'light');
+    expect(localStorage.getItem('tareline.theme')).toBe('light');
   });
 });

@@ -3,6 +3,7 @@ import { HubStatus } from '../../features/health/components/hub-status';
 import { useSession } from '../../lib/auth';
 import { useSessionCheck } from '../../lib/session-check';
 import { useSignOut } from '../../lib/sign-out';
+import { ThemeToggle } from './theme-toggle';
 
 const areas = [
   { to: '/bench', label: 'Bench' },
@@ -10,14 +11,17 @@ const areas = [
   { to: '/plan', label: 'Pour planner' },
 ];
 
-/** Header with the two areas of the product and the hub indicator; pages render below it. */
+/** Header with the areas of the product, the hub indicator and the theme; pages render below it. */
 export function AppShell() {
   const session = useSession();
   const signOut = useSignOut();
   useSessionCheck();
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="flex items-center justify-between gap-6 bg-steel px-6 py-3 text-paper">
+      <header
+        data-print="hide"
+        className="flex items-center justify-between gap-6 bg-steel px-6 py-3 text-paper"
+      >
         <div className="flex items-center gap-8">
           <span className="text-2xl font-bold tracking-wide">Tareline</span>
           <nav aria-label="Areas" className="flex gap-2">
@@ -54,6 +58,7 @@ export function AppShell() {
             </div>
           )}
           <HubStatus />
+          <ThemeToggle />
         </div>
       </header>
       <main className="flex-1 p-6">

@@ -1,0 +1,85 @@
+import { useState } from 'react';
+
+interface Step {
+  title: string;
+  detail: string;
+}
+
+/**
+ * Hand-mixing a weighed batch in a cup. The minutes and the double-cup transfer are common
+ * practice for small hand-mixed batches, no published source; a data sheet that gives its own
+ * mixing time or method comes first. (A material's `agitateMin` is not a mixing time: it is for
+ * stirring a settled part in its own can before weighing.)
+ */
+function mixingSteps(partCount: number): Step[] {
+  const parts = partCount > 2 ? 'part A, part B and part C' : 'part A and part B';
+  return [
+    {
+      title: `Mix ${parts}`,
+      detail:
+        'About 2 minutes with a flat stick, scraping the sides and the bottom of the cup as you go.',
+    },
+    {
+      title: 'Transfer to a second clean cup',
+      detail:
+        'The double-cup method: material stuck unmixed to the first cup’s walls and bottom stays behind.',
+    },
+    {
+      title: 'Mix again',
+      detail: 'About 1 minute more with a clean stick, scraping the sides and bottom again.',
+    },
+    {
+      title: 'Pour',
+      detail:
+        'In a thin steady stream into the lowest point of the mold, to keep air out, well within the pot life.',
+    },
+  ];
+}
+
+/** The mixing steps as a checklist the operator ticks off with a gloved finger. */
+export function MixingSteps({ partCount }: { partCount: number }) {
+  const steps = mixingSteps(partCount);
+  const [done, setDone] = useState<boolean[]>(() => steps.map(() => false));
+  const doneCount = done.filter(Boolean).length;
+  const toggle = (index: number) =>
+    setDone((was) => was.map((value, i) => (i === index ? !value : value)));
+
+  return (
+    <section aria-labelledby="mixing-title" className="space-y-3 rounded-xl bg-panel p-6">
+      <div className="flex items-baseline justify-between gap-4">
+        <h3 id="mixing-title" className="text-2xl font-bold">
+          Mixing steps
+        </h3>
+        <p className="text-xl text-muted" aria-live="polite">
+          {doneCount === steps.length ? 'All done' : `${doneCount} of ${steps.length} done`}
+        </p>
+      </div>
+      <ol className="space-y-3">
+        {steps.map((step, index) => (
+          <li key={step.title}>
+            <label
+              className={`flex min-h-20 cursor-pointer items-center gap-5 rounded-lg border-2 px-5 py-3 ${done[index] ? 'border-go' : 'border-line'}`}
+            >
+              <input
+                type="checkbox"
+                checked={done[index]}
+                onChange={() => toggle(index)}
+                aria-labelledby={`mix-step-${index}`}
+                aria-describedby={`mix-step-${index}-detail`}
+                className="h-10 w-10 shrink-0 accent-go"
+              />
+              <span>
+                <span id={`mix-step-${index}`} className="block text-2xl font-bold">
+                  {index + 1}. {step.title}
+                </span>
+                <span id={`mix-step-${index}-detail`} className="block text-lg text-muted">
+                  {step.detail}
+                </span>
+              </span>
+            </label>
+          </li>
+        ))}
+      </ol>
+    </section>
+  );
+}

@@ -1,0 +1,189 @@
+import type { Batch, Material } from '@tareline/protocol';
+import { act, fireEvent, render, screen, within } from '@testing-library/react';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { SavedBatch } from './saved-batch';
+
+// Local wall-clock times, so the label's clock reads the same in any time zone the tests run in.
+const SAVED_AT = new Date(2027, 2, 4, 14, 5, 0);
+
+const material: Material = {
+  id: 'mat-sc14',
+  name: 'Grey surface-coat epoxy SC-14',
+  ratio: { basis: 'weight', parts: [100, 14] },
+  specificGravity: 1.65,
+  weightRatio: [100, 14],
+  partLabels: ['Resin', 'Hardener'],
+  tolerancePct: 1,
+  potLifeMin: 25,
+  potLifeMassG: 100,
+  agitateMin: 3,
+  cautions: ['Amine hardeners can sensitise skin: wear nitrile gloves.'],
+  sdsRef: 'SDS binder, tab 3',
+  active: true,
+};
+
+function savedBatch(over: Partial<Batch> = {}): Batch {
+  return {
+    id: 42,
+    state: 'saved',
+    verdict: 'GO',
+    benchId: 'bench-1',
+    materialId: material.id,
+    materialName: material.name,
+    operator: { id: 'p-1', name: 'Wren Ashby' },
+    totalMassG: 114.1,
+    weightRatio: [100, 14],
+    parts: [
+      { label: 'Resin', targetG: 100, actualG: 100 },
+      { label: 'Hardener', targetG: 14, actualG: 14.1 },
+    ],
+    active: null,
+    rescue: null,
+    ratioDeviationPct: 0.714,
+    tolerancePct: 1,
+    readabilityG: 0.01,
+    lots: [
+      { part: 0, code: 'HRP-R-2611', lotId: 'lot-1', warnings: [] },
+      { part: 1, code: 'HRP-H-2702', lotId: 'lot-2', warnings: [] },
+    ],
+    potLifeMin: 25,
+    potLifeMassG: 100,
+    abandonReason: null,
+    interruptedReason: null,
+    steps: {},
+    createdAt: SAVED_AT.toISOString(),
+    savedAt: SAVED_AT.toISOString(),
+    ...over,
+  };
+}
+
+afterEach(() => {
+  vi.useRealTimers();
+});
+
+describe('SavedBatch', () => {
+  it('shows the batch number and a GO verdict by colour, shape and word', () => {
+    render(<SavedBatch batch={savedBatch()} material={material} />);
+    const banner = screen.getByRole('heading', { name: 'Batch 42 saved' }).closest('header')!;
+    expect(banner).toHaveClass('bg-go');
+    expect(within(banner).getByText('GO')).toBeInTheDocument();
+    expect(banner.querySelector('svg')).not.toBeNull();
+    expect(banner).toHaveTextContent('Weighed within the ±1 % band · ratio +0.71 %');
+  });
+
+  it('marks a NO-GO batch plainly and asks to keep the cup apart', () => {
+    render(
+      <SavedBatch
+        batch={savedBatch({ verdict: 'NO-GO', ratioDeviationPct: 3.57 })}
+        material={material}
+      />,
+    );
+    const banner = screen.getByRole('heading', { name: 'Batch 42 saved' }).closest('header')!;
+    expect(banner).toHaveClass('bg-over');
+    expect(within(banner).getByText('NO-GO')).toBeInTheDocument();
+    expect(banner).toHaveTextContent('Outside the ±1 % band · ratio +3.57 %');
+    expect(banner).toHaveTextContent('Keep this cup apart');
+    expect(within(screen.getByRole('article')).getByText('NO-GO')).toBeInTheDocument();
+  });
+
+  it('counts the pot life down from the save and says when it is over', () => {
+    vi.useFakeTimers({ now: SAVED_AT });
+    render(<SavedBatch batch={savedBatch()} material={material} />);
+    const timer = screen.getByRole('timer', { name: 'Pot life left' });
+    expect(timer).toHaveTextContent('25:00');
+    act(() => vi.advanceTimersByTime(1000));
+    expect(timer).toHaveTextContent('24:59');
+    expect(screen.getByText(/use by/)).toHaveTextContent('use by 2027-03-04 14:30');
+
+    act(() => vi.advanceTimersByTime(24 * 60_000 + 58_000));
+    expect(screen.getByRole('timer')).toHaveTextContent('00:01');
+    act(() => vi.advanceTimersByTime(1000));
+    expect(screen.queryByRole('timer')).not.toBeInTheDocument();
+    expect(screen.getByRole('alert')).toHaveTextContent('Pot life over');
+  });
+
+  it('shows the pot life as over for a batch saved longer ago than its pot life', () => {
+    vi.useFakeTimers({ now: SAVED_AT.getTime() + 26 * 60_000 });
+    render(<SavedBatch batch={savedBatch()} material={material} />);
+    expect(screen.getByRole('alert')).toHaveTextContent('Pot life over');
+  });
+
+  it('cautions about exotherm only when the batch is heavier than the pot life was rated for', () => {
+    const { unmount } = render(<SavedBatch batch={savedBatch()} material={material} />);
+    const caution = screen.getByRole('note', { name: 'Heavier than the pot life was rated for' });
+    expect(caution).toHaveTextContent('This batch is 114.1 g; the pot life on file is for 100.0 g');
+    expect(caution).toHaveTextContent('gels sooner (exotherm)');
+    expect(caution).toHaveTextContent('data sheet comes first');
+    unmount();
+
+    render(
+      <SavedBatch batch={savedBatch({ totalMassG: 100, potLifeMassG: 100 })} material={material} />,
+    );
+    expect(screen.queryByRole('note')).not.toBeInTheDocument();
+  });
+
+  it('says so when no pot life is on file', () => {
+    render(
+      <SavedBatch
+        batch={savedBatch({ potLifeMin: null, potLifeMassG: null })}
+        material={{ ...material, potLifeMin: undefined, potLifeMassG: undefined }}
+      />,
+    );
+    expect(screen.getByText(/No pot life on file for this material/)).toBeInTheDocument();
+    expect(screen.queryByRole('timer')).not.toBeInTheDocument();
+    const label = screen.getByRole('article', { name: 'Cup label for batch 42' });
+    expect(label).toHaveTextContent('Use byno pot life on file');
+  });
+
+  it('prints a cup label with the parts, lots, operator, times, verdict and a QR of the batch', () => {
+    const print = vi.spyOn(window, 'print').mockImplementation(() => {});
+    render(<SavedBatch batch={savedBatch()} material={material} />);
+    const label = screen.getByRole('article', { name: 'Cup label for batch 42' });
+    expect(label).toHaveAttribute('data-print', 'label');
+    const row = (term: string) => within(label).getByText(term).nextElementSibling;
+    expect(row('Part A (Resin)')).toHaveTextContent('100.00 g');
+    expect(row('Part B (Hardener)')).toHaveTextContent('14.10 g');
+    expect(row('Lot A')).toHaveTextContent('HRP-R-2611');
+    expect(row('Lot B')).toHaveTextContent('HRP-H-2702');
+    expect(row('Operator')).toHaveTextContent('Wren Ashby');
+    expect(row('Mixed')).toHaveTextContent('2027-03-04 14:05');
+    expect(row('Use by')).toHaveTextContent('2027-03-04 14:30');
+    expect(label).toHaveTextContent(material.name);
+    expect(within(label).getByText('GO')).toBeInTheDocument();
+
+    const url = `${window.location.origin}/review/batches/42`;
+    const qr = within(label).getByTitle(url).closest('svg');
+    expect(qr).not.toBeNull();
+    // The code itself: more than a few dark modules drawn.
+    expect(qr!.querySelectorAll('path')[1]?.getAttribute('d')?.length).toBeGreaterThan(200);
+
+    fireEvent.click(screen.getByRole('button', { name: 'Print label' }));
+    expect(print).toHaveBeenCalledTimes(1);
+  });
+
+  it('lets the operator tick the mixing steps off', () => {
+    render(<SavedBatch batch={savedBatch()} material={material} />);
+    const steps = screen.getByRole('region', { name: 'Mixing steps' });
+    const first = within(steps).getByRole('checkbox', { name: '1. Mix part A and part B' });
+    expect(first).toHaveAccessibleDescription(/scraping the sides and the bottom/);
+    expect(within(steps).getByText('0 of 4 done')).toBeInTheDocument();
+    fireEvent.click(first);
+    expect(first).toBeChecked();
+    expect(within(steps).getByText('1 of 4 done')).toBeInTheDocument();
+    for (const name of ['2. Transfer to a second clean cup', '3. Mix again', '4. Pour']) {
+      fireEvent.click(within(steps).getByRole('checkbox', { name }));
+    }
+    expect(within(steps).getByText('All done')).toBeInTheDocument();
+    fireEvent.click(first);
+    expect(first).not.toBeChecked();
+    expect(within(steps).getByText('3 of 4 done')).toBeInTheDocument();
+  });
+
+  it('lists the material cautions and defers to its safety data sheet', () => {
+    render(<SavedBatch batch={savedBatch()} material={material} />);
+    const safety = screen.getByRole('region', { name: 'Handle with care' });
+    expect(safety).toHaveTextContent(material.cautions[0]!);
+    expect(safety).toHaveTextContent('safety data sheet (SDS binder, tab 3)');
+    expect(safety).toHaveTextContent('local rules come first');
+  });
+});
