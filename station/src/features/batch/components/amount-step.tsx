@@ -110,8 +110,11 @@ export function AmountStep({
           material={planMaterial}
           {...(planScale ? { scale: planScale } : {})}
           onUse={(totalMassG) => {
-            // Up to whole tenths of a gram: a short batch spoils the pour, a tenth more costs nothing.
-            setValue('totalMassG', Math.ceil(totalMassG * 10) / 10, { shouldValidate: true });
+            // Up to whole tenths of a gram: a short batch spoils the pour, a tenth more costs
+            // nothing. The small allowance keeps float noise (165.000…01) from adding a tenth.
+            setValue('totalMassG', Math.ceil(totalMassG * 10 - 1e-6) / 10, {
+              shouldValidate: true,
+            });
             setEstimating(false);
           }}
         />
