@@ -18,20 +18,14 @@ export function FinishedStep({
   return (
     <div className="flex flex-col gap-6">
       {batch.state === 'saved' ? (
-        <>
-          <p
-            role="status"
-            className={`rounded-2xl px-6 py-4 text-3xl font-bold ${batch.verdict === 'GO' ? 'bg-go text-paper' : 'bg-over text-paper'}`}
-          >
-            <span aria-hidden="true">{batch.verdict === 'GO' ? '✓ ' : '✕ '}</span>
-            Saved on the hub as batch {batch.id}: {batch.verdict}
+        // SavedBatch opens with the batch number and the hub's verdict.
+        material ? (
+          <SavedBatch batch={batch} material={material} />
+        ) : (
+          <p role="status" className="text-3xl font-bold">
+            Batch {batch.id} saved
           </p>
-          {material ? (
-            <SavedBatch batch={batch} material={material} />
-          ) : (
-            <p className="text-xl text-muted">Loading the material…</p>
-          )}
-        </>
+        )
       ) : (
         <p
           role="status"
