@@ -136,19 +136,19 @@ export function BenchFlow({ benchId }: { benchId: string }) {
 
   return (
     <div className="flex flex-col gap-5">
-      <ol aria-label="Steps" className="flex flex-wrap gap-2 text-lg">
-        {STEPS.map((s, i) => (
-          <li
-            key={s.key}
-            aria-current={s.key === step ? 'step' : undefined}
-            className={`rounded-full px-4 py-1 ${s.key === step ? 'bg-steel font-bold text-paper' : 'bg-panel text-muted ring-1 ring-line'}`}
-          >
-            {i + 1}. {s.title}
-          </li>
-        ))}
-      </ol>
-      <div className="flex flex-wrap items-center justify-between gap-4">
-        <h2 className="text-3xl font-bold">{title}</h2>
+      <h2 className="sr-only">{title}</h2>
+      <div className="flex flex-wrap items-center justify-between gap-x-6 gap-y-2">
+        <ol aria-label="Steps" className="flex flex-wrap gap-2 text-lg">
+          {STEPS.map((s, i) => (
+            <li
+              key={s.key}
+              aria-current={s.key === step ? 'step' : undefined}
+              className={`rounded-full px-4 py-1 ${s.key === step ? 'bg-steel font-bold text-paper' : 'bg-panel text-muted ring-1 ring-line'}`}
+            >
+              {i + 1}. {s.title}
+            </li>
+          ))}
+        </ol>
         {material && (
           <p className="text-xl">
             <strong>{material.name}</strong> · {ratioText(material)}

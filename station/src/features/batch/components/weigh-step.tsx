@@ -86,65 +86,68 @@ function ActivePour({
   const lastToPour = batch.parts.every((p, i) => i === active.part || p.actualG !== null);
   const title = active.kind === 'top-up' ? `Top up ${name}` : `Weigh ${name}`;
 
+  let actions;
+  if (!active.tared) {
+    actions = (
+      <>
+        <p className="text-2xl">
+          {active.part === 0 && active.kind === 'first'
+            ? 'Put the lined cup on the scale, then tare.'
+            : 'Tare the scale with the cup as it is.'}
+        </p>
+        <button
+          type="button"
+          disabled={busy}
+          onClick={() => send('tare')}
+          className={primaryButton}
+        >
+          Tare
+        </button>
+      </>
+    );
+  } else if (!judged) {
+    actions = (
+      <>
+        <p className="text-2xl">Press done once the reading is steady.</p>
+        <button
+          type="button"
+          disabled={busy || !online || !live.reading?.stable}
+          onClick={() => send('next')}
+          className={primaryButton}
+        >
+          Part {letter} done
+        </button>
+      </>
+    );
+  } else if (verdict === 'GO' && pour?.saveInMs != null) {
+    actions = (
+      <p role="status" className="text-3xl font-bold">
+        Steady in the band: {lastToPour ? 'saving' : `part ${letter} done`} in{' '}
+        {(pour.saveInMs / 1000).toFixed(1)} s
+      </p>
+    );
+  } else if (verdict === 'OVER' && pour?.rescue) {
+    actions = <RescueOffer batch={batch} rescue={pour.rescue} busy={busy} send={send} />;
+  } else {
+    actions = (
+      <p className="text-2xl">
+        Pour into the band and hold still: the batch {lastToPour ? 'saves' : 'moves on'} by itself.
+      </p>
+    );
+  }
+
   return (
-    <>
-      <h3 className="text-3xl font-bold">
-        {title}: {formatGrams(active.targetG, 2)} g
-      </h3>
-      <Gauge
-        reading={live.reading}
-        status={live.status}
-        label={title}
-        targetG={active.targetG}
-        band={active.band ?? undefined}
-        slowDownFromG={active.slowDownFromG}
-        verdict={judged ? verdict : undefined}
-        readabilityG={batch.readabilityG}
-      />
-      <div className="flex flex-wrap items-center gap-4">
-        {!active.tared ? (
-          <>
-            <p className="text-2xl">
-              {active.part === 0 && active.kind === 'first'
-                ? 'Put the lined cup on the scale, then tare.'
-                : 'Tare the scale with the cup as it is.'}
-            </p>
-            <button
-              type="button"
-              disabled={busy}
-              onClick={() => send('tare')}
-              className={primaryButton}
-            >
-              Tare
-            </button>
-          </>
-        ) : !judged ? (
-          <>
-            <p className="text-2xl">Pour {name}; press done once the reading is steady.</p>
-            <button
-              type="button"
-              disabled={busy || !online || !live.reading?.stable}
-              onClick={() => send('next')}
-              className={primaryButton}
-            >
-              Part {letter} done
-            </button>
-          </>
-        ) : verdict === 'GO' && pour?.saveInMs != null ? (
-          <p role="status" className="text-3xl font-bold">
-            Steady in the band: {lastToPour ? 'saving' : `part ${letter} done`} in{' '}
-            {(pour.saveInMs / 1000).toFixed(1)} s
-          </p>
-        ) : verdict === 'OVER' && pour?.rescue ? (
-          <RescueOffer batch={batch} rescue={pour.rescue} busy={busy} send={send} />
-        ) : (
-          <p className="text-2xl">
-            Pour into the band and hold still: the batch {lastToPour ? 'saves' : 'moves on'} by
-            itself.
-          </p>
-        )}
-      </div>
-    </>
+    <Gauge
+      reading={live.reading}
+      status={live.status}
+      label={`${title}: ${formatGrams(active.targetG, 2)} g`}
+      targetG={active.targetG}
+      band={active.band ?? undefined}
+      slowDownFromG={active.slowDownFromG}
+      verdict={judged ? verdict : undefined}
+      readabilityG={batch.readabilityG}
+      actions={actions}
+    />
   );
 }
 
@@ -162,45 +165,43 @@ function RescueOffer({
   const additions = rescue.addG.map((g, part) => ({ g, part })).filter(({ g }) => g > 0);
   const only = additions.length === 1 ? additions[0] : undefined;
   return (
-    <section
-      aria-labelledby="rescue-title"
-      className="w-full rounded-2xl border-l-8 border-over bg-panel p-5"
-    >
-      <h4 id="rescue-title" className="text-2xl font-bold">
-        Over the band: the ratio can be restored
-      </h4>
-      <ul className="mt-2 text-2xl">
-        {additions.map(({ g, part }) => (
-          <li key={part}>
-            Add <strong>{formatGrams(g, 2)} g</strong> of {partName(part, batch.parts[part]?.label)}
-          </li>
-        ))}
-      </ul>
-      <p className="mt-1 text-xl">
-        {rescue.fits === true
-          ? `It fits on the scale (${formatGrams(rescue.totalAfterG, 1)} g in the cup after).`
-          : rescue.fits === false
-            ? 'It does not fit on the scale: save the batch as NO-GO.'
-            : `The scale's capacity is unknown: check the cup can take ${formatGrams(rescue.totalAfterG, 1)} g.`}
-      </p>
-      <div className="mt-4 flex flex-wrap gap-4">
-        <button
-          type="button"
-          disabled={busy || rescue.fits === false}
-          onClick={() => send('rescue')}
-          className={primaryButton}
-        >
-          {only ? `Add part ${partLetter(only.part)}` : 'Add the parts'}
-        </button>
-        <button
-          type="button"
-          disabled={busy}
-          onClick={() => send('save-no-go')}
-          className={dangerButton}
-        >
-          Save as NO-GO
-        </button>
+    <section aria-labelledby="rescue-title" className="flex flex-wrap items-center gap-4">
+      <div className="text-xl">
+        <h4 id="rescue-title" className="font-bold">
+          Over the band: the ratio can be restored
+        </h4>
+        <ul className="text-2xl">
+          {additions.map(({ g, part }) => (
+            <li key={part}>
+              Add <strong>{formatGrams(g, 2)} g</strong> of{' '}
+              {partName(part, batch.parts[part]?.label)}
+            </li>
+          ))}
+        </ul>
+        <p>
+          {rescue.fits === true
+            ? `It fits on the scale (${formatGrams(rescue.totalAfterG, 1)} g in the cup after).`
+            : rescue.fits === false
+              ? 'It does not fit on the scale: save the batch as NO-GO.'
+              : `The scale's capacity is unknown: check the cup can take ${formatGrams(rescue.totalAfterG, 1)} g.`}
+        </p>
       </div>
+      <button
+        type="button"
+        disabled={busy || rescue.fits === false}
+        onClick={() => send('rescue')}
+        className={primaryButton}
+      >
+        {only ? `Add part ${partLetter(only.part)}` : 'Add the parts'}
+      </button>
+      <button
+        type="button"
+        disabled={busy}
+        onClick={() => send('save-no-go')}
+        className={dangerButton}
+      >
+        Save as NO-GO
+      </button>
     </section>
   );
 }
