@@ -81,7 +81,9 @@ export function BenchFlow({ benchId }: { benchId: string }) {
       />
     );
   } else if (batch) {
-    body = <WeighStep batch={batch} live={live} onAnswer={bench.offer} />;
+    // A new pour starts clean: a refusal shown for the last one is no longer news.
+    const pourKey = `${batch.id}:${batch.state}:${batch.active?.part}:${batch.active?.kind}`;
+    body = <WeighStep key={pourKey} batch={batch} live={live} onAnswer={bench.offer} />;
   } else if (step === 'material' || !draft.material) {
     body = (
       <ChooseMaterial
@@ -138,12 +140,12 @@ export function BenchFlow({ benchId }: { benchId: string }) {
     <div className="flex flex-col gap-5">
       <h2 className="sr-only">{title}</h2>
       <div className="flex flex-wrap items-center justify-between gap-x-6 gap-y-2">
-        <ol aria-label="Steps" className="flex flex-wrap gap-2 text-lg">
+        <ol aria-label="Steps" className="flex flex-wrap gap-2 text-base">
           {STEPS.map((s, i) => (
             <li
               key={s.key}
               aria-current={s.key === step ? 'step' : undefined}
-              className={`rounded-full px-4 py-1 ${s.key === step ? 'bg-steel font-bold text-paper' : 'bg-panel text-muted ring-1 ring-line'}`}
+              className={`rounded-full px-3 py-1 ${s.key === step ? 'bg-steel font-bold text-paper' : 'bg-panel text-muted ring-1 ring-line'}`}
             >
               {i + 1}. {s.title}
             </li>

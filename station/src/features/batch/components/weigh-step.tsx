@@ -1,5 +1,5 @@
 import type { Batch, PourEvent, Rescue } from '@tareline/protocol';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { Gauge } from '../../scale/components/gauge';
 import type { LiveBench } from '../../scale/hooks/use-live-bench';
 import { formatGrams } from '../../scale/utils/format-weight';
@@ -26,26 +26,33 @@ export function WeighStep({
   const [abandoning, setAbandoning] = useState(false);
   const send = (what: BatchIntent) => intent.mutate({ batchId: batch.id, intent: what });
   const online = live.status.state === 'online';
+  const abandonButton = (
+    <button type="button" onClick={() => setAbandoning(true)} className={secondaryButton}>
+      Abandon batch…
+    </button>
+  );
 
   return (
     <div className="flex flex-col gap-5">
       <LotWarnings batch={batch} />
+      <HubError error={intent.error} what="The hub said no" />
       {batch.state === 'interrupted' ? (
         <Interrupted
           batch={batch}
           online={online}
           busy={intent.isPending}
           onResume={() => send('resume')}
+          abandonButton={abandonButton}
         />
       ) : (
-        <ActivePour batch={batch} live={live} busy={intent.isPending} send={send} />
+        <ActivePour
+          batch={batch}
+          live={live}
+          busy={intent.isPending}
+          send={send}
+          abandonButton={abandonButton}
+        />
       )}
-      <HubError error={intent.error} what="The hub said no" />
-      <div className="flex justify-end">
-        <button type="button" onClick={() => setAbandoning(true)} className={secondaryButton}>
-          Abandon batch…
-        </button>
-      </div>
       <AbandonDialog
         open={abandoning}
         batchId={batch.id}
@@ -64,11 +71,13 @@ function ActivePour({
   live,
   busy,
   send,
+  abandonButton,
 }: {
   batch: Batch;
   live: LiveBench;
   busy: boolean;
   send: (intent: BatchIntent) => void;
+  abandonButton: ReactNode;
 }) {
   const active = batch.active;
   if (!active) return <p className="text-xl">Waiting for the hub…</p>;
@@ -146,7 +155,12 @@ function ActivePour({
       slowDownFromG={active.slowDownFromG}
       verdict={judged ? verdict : undefined}
       readabilityG={batch.readabilityG}
-      actions={actions}
+      actions={
+        <>
+          {actions}
+          {abandonButton}
+        </>
+      }
     />
   );
 }
@@ -211,11 +225,13 @@ function Interrupted({
   online,
   busy,
   onResume,
+  abandonButton,
 }: {
   batch: Batch;
   online: boolean;
   busy: boolean;
   onResume: () => void;
+  abandonButton: ReactNode;
 }) {
   return (
     <section
@@ -242,6 +258,7 @@ function Interrupted({
           Resume
         </button>
         {!online && <p className="text-xl text-muted">Resume needs the scale online.</p>}
+        <div className="ml-auto">{abandonButton}</div>
       </div>
     </section>
   );
