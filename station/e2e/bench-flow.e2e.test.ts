@@ -53,12 +53,19 @@ describe('the bench flow in Chromium', () => {
     await page.keyboard.press('Enter');
     await page.getByText('Signed in: Joss Whitcombe').waitFor(LONG);
 
-    await page.getByRole('button', { name: /Grey surface-coat epoxy SC-14/ }).click(LONG);
+    const card = page.getByRole('button', { name: /Grey surface-coat epoxy SC-14/ });
+    await card.waitFor(LONG);
+    expect((await card.boundingBox())?.height).toBeGreaterThanOrEqual(56);
+    await page.screenshot({ path: join(artifactsDir, 'bench-flow-material.png') });
+    await card.click();
     await page.getByRole('textbox', { name: 'Total mass to mix' }).fill('114');
     await page.getByRole('button', { name: 'Next: lots' }).click();
-    await page.getByRole('button', { name: 'Next: prepare' }).click(LONG);
+    await page.getByRole('button', { name: 'SC14H-2608' }).click(LONG);
+    await page.screenshot({ path: join(artifactsDir, 'bench-flow-lots.png') });
+    await page.getByRole('button', { name: 'Next: prepare' }).click();
     // SC-14 is filled and settles: its stirring timer may be skipped only on purpose.
     await page.getByText(/SDS binder, tab 3/).waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'bench-flow-prep.png') });
     await page.getByRole('button', { name: 'Skip stirring…' }).click();
     await page.getByRole('button', { name: 'Yes, skip: it is stirred' }).click();
     await page.getByRole('button', { name: 'Start weighing' }).click();
@@ -88,6 +95,7 @@ describe('the bench flow in Chromium', () => {
       LONG,
     );
     await page.getByText(/^stable · gross/).waitFor(LONG);
+    await page.screenshot({ path: join(artifactsDir, 'bench-flow-part-a.png') });
     await partADone.click();
 
     // Part B: the hub tares the cup with part A in it and judges the pour against the band.
@@ -142,6 +150,7 @@ describe('the bench flow in Chromium', () => {
       verdict: 'GO',
       materialName: 'Grey surface-coat epoxy SC-14',
       operator: { name: 'Joss Whitcombe' },
+      lots: [{ part: 1, code: 'SC14H-2608', warnings: [] }],
     });
     // (14.10 / 100 − 0.14) / 0.14 × 100 = +0.714 % (issue 6's worked example); the simulator's
     // noise and its flow cut-off move the last hundredth, so allow ± 0.15 %.

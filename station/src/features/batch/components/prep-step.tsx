@@ -36,7 +36,7 @@ export function PrepStep({
   const ready = !needsAgitation || agitation.kind === 'done' || agitation.kind === 'skipped';
 
   return (
-    <div className="flex flex-col gap-6">
+    <div className="grid items-start gap-6 lg:grid-cols-[3fr_2fr]">
       <section
         aria-labelledby="cautions-title"
         className="rounded-2xl bg-panel p-6 ring-1 ring-line"
@@ -44,7 +44,7 @@ export function PrepStep({
         <h3 id="cautions-title" className="flex items-center gap-3 text-2xl font-bold">
           <span aria-hidden="true">⚠</span> Before you open the containers
         </h3>
-        <ul className="mt-3 list-disc space-y-2 pl-7 text-xl">
+        <ul className="mt-3 list-disc space-y-2 pl-7 text-lg">
           {material.cautions.map((c) => (
             <li key={c}>{c}</li>
           ))}
@@ -52,28 +52,29 @@ export function PrepStep({
             <li key={c}>{c}</li>
           ))}
         </ul>
-        <p className="mt-4 text-xl">
+        <p className="mt-4 text-lg">
           <strong>Safety data sheet:</strong>{' '}
           {material.sdsRef ?? 'not recorded for this material: ask a lead before you pour'}. It and
           your local rules come before anything this screen says.
         </p>
       </section>
 
-      {needsAgitation && (
-        <AgitationTimer minutes={material.agitateMin} state={agitation} onState={setAgitation} />
-      )}
-
-      <HubError error={startError} what="The batch did not start" />
-      <div>
-        <button
-          type="button"
-          disabled={!ready || starting}
-          onClick={onStart}
-          className={primaryButton}
-        >
-          {starting ? 'Starting…' : 'Start weighing'}
-        </button>
-        {!ready && <p className="mt-2 text-lg text-muted">Stir part A first, or skip the timer.</p>}
+      <div className="flex flex-col gap-6">
+        {needsAgitation && (
+          <AgitationTimer minutes={material.agitateMin} state={agitation} onState={setAgitation} />
+        )}
+        <HubError error={startError} what="The batch did not start" />
+        <div>
+          <button
+            type="button"
+            disabled={!ready || starting}
+            onClick={onStart}
+            className={primaryButton}
+          >
+            {starting ? 'Starting…' : 'Start weighing'}
+          </button>
+          {!ready && <p className="mt-2 text-lg text-muted">Stir first, or skip the timer.</p>}
+        </div>
       </div>
     </div>
   );
@@ -107,7 +108,7 @@ function AgitationTimer({
         Stir the settled filler back in: {minutes} min
       </h3>
       <p className="mt-1 text-lg text-muted">
-        Stir part A from the bottom of the container until the colour is even.
+        Stir the filled part from the bottom of its container until the colour is even.
       </p>
       <div className="mt-4 flex flex-wrap items-center gap-4">
         <p role="timer" aria-label="Stirring time left" className="text-6xl font-bold tabular-nums">
