@@ -80,6 +80,11 @@ describe('the bench flow in Chromium', () => {
     await tare.click();
     const partADone = page.getByRole('button', { name: 'Part A done' });
     await partADone.waitFor(LONG);
+    // A reloaded bench screen asks the hub for the open batch and carries on where it was.
+    await page.reload();
+    await page.getByRole('heading', { name: 'Weigh Part A (Resin): 100.00 g' }).waitFor(LONG);
+    await partADone.waitFor(LONG);
+    await page.getByText('Scale: online').waitFor(LONG);
     await page.waitForFunction(
       () =>
         Math.abs(Number(document.querySelector('[data-testid="net-weight"]')?.textContent)) < 0.05,
@@ -116,6 +121,9 @@ describe('the bench flow in Chromium', () => {
     const go = page.locator('[data-verdict="GO"]').first();
     await go.waitFor(LONG);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-go.png') });
+    await page.setViewportSize({ width: 1920, height: 1080 });
+    await page.screenshot({ path: join(artifactsDir, 'bench-flow-go-1920.png') });
+    await page.setViewportSize({ width: 1280, height: 800 });
     const savedHeading = page.getByRole('heading', { name: /^Batch \d+ saved$/ });
     await savedHeading.waitFor(LONG);
     const batchId = Number((await savedHeading.textContent())!.match(/\d+/)![0]);

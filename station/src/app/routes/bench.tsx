@@ -11,7 +11,7 @@ export function BenchRoute() {
 export function BenchHomeRoute() {
   const benchId = useSession()?.bench?.id;
   return (
-    <section aria-labelledby="bench-title" className="mx-auto w-full max-w-7xl">
+    <section aria-labelledby="bench-title" className="w-full">
       <h1 id="bench-title" className="sr-only">
         Bench
       </h1>

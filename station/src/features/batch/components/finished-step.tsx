@@ -17,6 +17,12 @@ export function FinishedStep({
 }) {
   return (
     <div className="flex flex-col gap-6">
+      {/* At the top: the saved page is long (pot life, label, steps) and this is the way on. */}
+      <div className="flex justify-end">
+        <button type="button" onClick={onNext} className={primaryButton}>
+          Next batch
+        </button>
+      </div>
       {batch.state === 'saved' ? (
         // SavedBatch opens with the batch number and the hub's verdict.
         material ? (
@@ -34,11 +40,6 @@ export function FinishedStep({
           Batch {batch.id} abandoned: {batch.abandonReason}
         </p>
       )}
-      <div>
-        <button type="button" onClick={onNext} className={primaryButton}>
-          Next batch
-        </button>
-      </div>
     </div>
   );
 }
