@@ -319,7 +319,9 @@ describe('a batch that did not go to plan', { timeout: 20_000 }, () => {
     expect(screen.getByText('The hub restarted during the pour')).toBeInTheDocument();
     const resume = screen.getByRole('button', { name: 'Resume' });
     expect(resume).toBeDisabled();
+    expect(screen.getByText(/Resume needs the scale online/)).toBeInTheDocument();
     scaleOnline();
+    expect(screen.queryByText(/Resume needs the scale online/)).not.toBeInTheDocument();
     await user.click(resume);
     expect(
       await screen.findByRole('heading', { name: 'Weigh Part B (Hardener): 14.00 g' }),

@@ -40,6 +40,7 @@ export function WeighStep({
         <Interrupted
           batch={batch}
           online={online}
+          scaleDetail={live.status.detail}
           busy={intent.isPending}
           onResume={() => send('resume')}
           abandonButton={abandonButton}
@@ -223,12 +224,14 @@ function RescueOffer({
 function Interrupted({
   batch,
   online,
+  scaleDetail,
   busy,
   onResume,
   abandonButton,
 }: {
   batch: Batch;
   online: boolean;
+  scaleDetail: string;
   busy: boolean;
   onResume: () => void;
   abandonButton: ReactNode;
@@ -257,7 +260,11 @@ function Interrupted({
         >
           Resume
         </button>
-        {!online && <p className="text-xl text-muted">Resume needs the scale online.</p>}
+        {!online && (
+          <p role="status" className="text-xl text-muted">
+            Resume needs the scale online. Scale now: {scaleDetail}
+          </p>
+        )}
         <div className="ml-auto">{abandonButton}</div>
       </div>
     </section>
