@@ -1,18 +1,7 @@
 import type { Batch } from '@tareline/protocol';
 import { useState } from 'react';
 import { useCurrentBatch } from '../api/get-current-batch';
-
-/** The newest moment the hub recorded for a batch: its steps are stamped with ISO times. */
-function lastStepAt(batch: Batch): string {
-  return Object.values(batch.steps).reduce((a, b) => (b > a ? b : a), batch.createdAt);
-}
-
-/** Of two versions of the bench's batch, the one the hub wrote last (a new batch beats an old). */
-function newer(a: Batch | null, b: Batch): Batch {
-  if (!a || b.id > a.id) return b;
-  if (b.id < a.id) return a;
-  return lastStepAt(b) >= lastStepAt(a) ? b : a;
-}
+import { newer } from '../utils/newer-batch';
 
 export interface BenchBatch {
   /** The bench's batch as the hub last told it, or null when there is none to show. */
