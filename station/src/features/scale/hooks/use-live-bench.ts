@@ -32,8 +32,9 @@ export interface LiveBench {
 type LiveSocket = Socket<LiveServerEvents, LiveClientEvents>;
 
 /**
- * The live weights and scale state of one bench, over socket.io. The hub throttles readings to
- * 25 a second; every one replaces the last (no history kept here).
+ * The live weights, scale state, batch and pour judgements of one bench, over socket.io, each
+ * checked against the protocol's schema. The hub throttles readings to 25 a second; every event
+ * replaces the last of its kind (no history kept here).
  */
 export function useLiveBench(benchId: string, options: { token?: string } = {}): LiveBench {
   const { token } = options;
