@@ -17,6 +17,7 @@ import {
   type UseFormRegister,
 } from 'react-hook-form';
 import { usePlanPreview } from '../hooks/use-plan-preview';
+import { formatMass } from '../utils/format';
 import { CheckField, FieldGroup, NumberField, SelectField } from './fields';
 import { PlanSteps } from './plan-steps';
 
@@ -71,13 +72,15 @@ export interface VolumeEstimatorProps {
   scale?: PlanRequestInput['scale'];
   /** Called with each new plan as the operator types, and `undefined` while input is missing. */
   onPlan?: (plan: PlanResponse | undefined) => void;
+  /** Offers a button that hands the plan's total mass back (the bench flow's amount step). */
+  onUse?: (totalMassG: number) => void;
 }
 
 /**
  * The volume estimator: a cavity, a model and an allowance in; the mass to mix and each part's
  * share out, every step shown. Computes as you type with the protocol's pure functions.
  */
-export function VolumeEstimator({ material, scale, onPlan }: VolumeEstimatorProps) {
+export function VolumeEstimator({ material, scale, onPlan, onUse }: VolumeEstimatorProps) {
   const resolver = useMemo<Resolver<PlanRequestInput>>(() => {
     const base = zodResolver(planRequestSchema) as unknown as Resolver<PlanRequestInput>;
     return (values, context, options) =>
@@ -446,6 +449,15 @@ export function VolumeEstimator({ material, scale, onPlan }: VolumeEstimatorProp
         {preview.plan ? (
           <>
             <PlanSteps plan={preview.plan} />
+            {onUse ? (
+              <button
+                type="button"
+                onClick={() => onUse(preview.plan!.totalMassG)}
+                className="min-h-14 rounded-xl bg-steel px-6 text-xl font-semibold text-paper"
+              >
+                Use this total: {formatMass(preview.plan.totalMassG, 'g')}
+              </button>
+            ) : null}
             {preview.plan.warnings.length > 0 ? (
               <ul aria-label="Warnings" className="flex flex-col gap-2">
                 {preview.plan.warnings.map((w) => (

@@ -1,5 +1,5 @@
 import type { ReadingEvent, ScaleState, ScaleStatusEvent } from '@tareline/protocol';
-import { useRef } from 'react';
+import { useRef, type ReactNode } from 'react';
 import { useEasedScaleX } from '../hooks/use-eased-scale';
 import type { GaugeBand, GaugeVerdict } from '../types';
 import { decimalsFor, formatGrams, trackEndG, trackFraction } from '../utils/format-weight';
@@ -18,6 +18,8 @@ export interface GaugeProps {
   label?: string | undefined;
   /** The scale interval d in grams, for the decimals shown (default 0.01 g). */
   readabilityG?: number | undefined;
+  /** The operator's controls for this pour, beside the verdict (kept on one screen at 1280 × 800). */
+  actions?: ReactNode;
 }
 
 const STATE_SHOWN: Record<ScaleState, { word: string; dot: string }> = {
@@ -44,6 +46,7 @@ export function Gauge({
   verdict,
   label,
   readabilityG = 0.01,
+  actions,
 }: GaugeProps) {
   const fillRef = useRef<HTMLDivElement>(null);
   const online = status.state === 'online';
@@ -170,6 +173,9 @@ export function Gauge({
             </svg>
             Slow down: near the target
           </p>
+        )}
+        {actions && (
+          <div className="ml-auto flex flex-wrap items-center justify-end gap-4">{actions}</div>
         )}
       </div>
     </section>

@@ -1,36 +1,11 @@
-import { act, renderHook } from '@testing-library/react';
+import { renderHook } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { openedSockets as sockets } from '../testing/fake-live-socket';
+import { partBFixture, pourFixture } from '../testing/live-fixtures';
 
-type Handler = (...args: unknown[]) => void;
-
-/** A stand-in for the socket.io client socket: the test plays the hub. */
-class FakeSocket {
-  handlers = new Map<string, Handler>();
-  active = true;
-  disconnected = false;
-  on(event: string, handler: Handler) {
-    this.handlers.set(event, handler);
-    return this;
-  }
-  fire(event: string, ...args: unknown[]) {
-    act(() => this.handlers.get(event)?.(...args));
-  }
-  removeAllListeners() {
-    this.handlers.clear();
-  }
-  disconnect() {
-    this.disconnected = true;
-  }
-}
-
-const sockets: { url: string; options: unknown; socket: FakeSocket }[] = [];
-vi.mock('socket.io-client', () => ({
-  io: (url: string, options: unknown) => {
-    const socket = new FakeSocket();
-    sockets.push({ url, options, socket });
-    return socket;
-  },
-}));
+vi.mock('socket.io-client', () =>
+  import('../testing/fake-live-socket').then((m) => m.fakeSocketIo),
+);
 
 const { useLiveBench } = await import('./use-live-bench');
 
@@ -61,6 +36,21 @@ describe('useLiveBench', () => {
     socket.fire('reading', { benchId: 'bench-9', seq: 5, t: 1, grossG: 1, netG: 1, stable: true });
     socket.fire('reading', { benchId: 'bench-2', seq: 'x' });
     expect(result.current.reading?.seq).toBe(4);
+  });
+
+  it("carries the bench's batch and the hub's judgement of each pour, and nothing malformed", () => {
+    const { result } = renderHook(() => useLiveBench('bench-1'));
+    const { socket } = sockets[0]!;
+    expect(result.current.batchEvent).toBeUndefined();
+    socket.fire('batch', { benchId: 'bench-1', batch: partBFixture() });
+    socket.fire('pour', pourFixture({ netG: 13.9, verdict: 'GO', saveInMs: 600 }));
+    expect(result.current.batchEvent?.batch?.state).toBe('weighing-b');
+    expect(result.current.pour).toMatchObject({ netG: 13.9, verdict: 'GO', saveInMs: 600 });
+    // A batch event that does not fit the protocol, or another bench's, changes nothing.
+    socket.fire('batch', { benchId: 'bench-1', batch: { id: 'seven' } });
+    socket.fire('pour', pourFixture({ benchId: 'bench-2', verdict: 'OVER' }));
+    expect(result.current.batchEvent?.batch?.id).toBe(7);
+    expect(result.current.pour?.verdict).toBe('GO');
   });
 
   it('shows the scale offline when the hub goes away, and the reason when it refuses', () => {

@@ -1,9 +1,13 @@
 import {
+  batchEventSchema,
   LIVE_NAMESPACE,
+  pourEventSchema,
   readingEventSchema,
+  type BatchEvent,
   scaleStatusEventSchema,
   type LiveClientEvents,
   type LiveServerEvents,
+  type PourEvent,
   type ReadingEvent,
   type ScaleStatusEvent,
 } from '@tareline/protocol';
@@ -19,13 +23,18 @@ export interface LiveBench {
   connected: boolean;
   /** Why the hub refused the socket (unknown bench, sign-in needed), if it did. */
   refused: string | undefined;
+  /** The newest `batch` event: the bench's batch as the hub committed it; undefined until one. */
+  batchEvent: BatchEvent | undefined;
+  /** The hub's newest judgement of a reading against the active pour; undefined until one. */
+  pour: PourEvent | undefined;
 }
 
 type LiveSocket = Socket<LiveServerEvents, LiveClientEvents>;
 
 /**
- * The live weights and scale state of one bench, over socket.io. The hub throttles readings to
- * 25 a second; every one replaces the last (no history kept here).
+ * The live weights, scale state, batch and pour judgements of one bench, over socket.io, each
+ * checked against the protocol's schema. The hub throttles readings to 25 a second; every event
+ * replaces the last of its kind (no history kept here).
  */
 export function useLiveBench(benchId: string, options: { token?: string } = {}): LiveBench {
   const { token } = options;
@@ -65,6 +74,14 @@ export function useLiveBench(benchId: string, options: { token?: string } = {}):
       const parsed = scaleStatusEventSchema.safeParse(event);
       if (parsed.success && parsed.data.benchId === benchId) update({ status: parsed.data });
     });
+    socket.on('batch', (event) => {
+      const parsed = batchEventSchema.safeParse(event);
+      if (parsed.success && parsed.data.benchId === benchId) update({ batchEvent: parsed.data });
+    });
+    socket.on('pour', (event) => {
+      const parsed = pourEventSchema.safeParse(event);
+      if (parsed.success && parsed.data.benchId === benchId) update({ pour: parsed.data });
+    });
     return () => {
       socket.removeAllListeners();
       socket.disconnect();
@@ -82,5 +99,7 @@ function initial(benchId: string): { benchId: string } & LiveBench {
     status: { benchId, state: 'connecting', detail: 'Connecting to the hub…' },
     connected: false,
     refused: undefined,
+    batchEvent: undefined,
+    pour: undefined,
   };
 }

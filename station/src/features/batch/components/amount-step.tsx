@@ -1,0 +1,124 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { createBatchSchema, type Material, type PlanMaterial } from '@tareline/protocol';
+import { useId, useMemo, useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { VolumeEstimator } from '../../plan/components/volume-estimator';
+import { useBenches } from '../../scale/api/get-benches';
+import { primaryButton, secondaryButton } from './buttons';
+
+const amountSchema = z.object({ totalMassG: createBatchSchema.shape.totalMassG });
+type AmountForm = z.input<typeof amountSchema>;
+
+/** What is typed: '' is nothing yet, "1,5" is read as 1.5, anything else as a number (or NaN). */
+function asNumber(raw: unknown): number | undefined {
+  const text = String(raw ?? '').trim();
+  return text === '' ? undefined : Number(text.replace(',', '.'));
+}
+
+/** Step 2: the total mass to mix, typed or worked out with the volume estimator. */
+export function AmountStep({
+  benchId,
+  material,
+  initialG,
+  onDone,
+}: {
+  benchId: string;
+  material: Material;
+  initialG: number | undefined;
+  onDone: (totalMassG: number) => void;
+}) {
+  const id = useId();
+  const [estimating, setEstimating] = useState(false);
+  const {
+    register,
+    handleSubmit,
+    setValue,
+    formState: { errors },
+  } = useForm<AmountForm>({
+    resolver: zodResolver(amountSchema),
+    defaultValues: initialG === undefined ? {} : { totalMassG: initialG },
+  });
+  const benches = useBenches();
+  const scale = benches.data?.find((b) => b.id === benchId)?.scale;
+  const planMaterial = useMemo<PlanMaterial>(
+    () => ({
+      ratio: material.ratio,
+      ...(material.specificGravity !== undefined && { specificGravity: material.specificGravity }),
+      ...(material.yieldIn3PerLb !== undefined && { yieldIn3PerLb: material.yieldIn3PerLb }),
+      ...(material.partSpecificGravities !== undefined && {
+        partSpecificGravities: material.partSpecificGravities,
+      }),
+    }),
+    [material],
+  );
+  const planScale = useMemo(
+    () =>
+      scale && {
+        readabilityG: scale.readabilityG,
+        ...(scale.capacityG !== undefined && { capacityG: scale.capacityG }),
+      },
+    [scale],
+  );
+  const error = errors.totalMassG?.message;
+
+  return (
+    <div className="flex flex-col gap-6">
+      <form
+        noValidate
+        aria-label="Amount"
+        onSubmit={handleSubmit((v) => onDone(amountSchema.parse(v).totalMassG))}
+        className="flex flex-wrap items-end gap-4"
+      >
+        <div className="flex flex-col gap-1">
+          <label htmlFor={id} className="text-xl font-semibold">
+            Total mass to mix
+          </label>
+          <div className="flex items-center gap-3">
+            <input
+              id={id}
+              type="text"
+              inputMode="decimal"
+              autoComplete="off"
+              aria-invalid={error ? true : undefined}
+              aria-describedby={error ? `${id}-error` : undefined}
+              className="h-16 w-56 rounded-xl border-2 border-line bg-panel px-4 text-4xl font-bold tabular-nums focus:border-steel focus:outline-none aria-[invalid=true]:border-over"
+              {...register('totalMassG', { setValueAs: asNumber })}
+            />
+            <span className="text-3xl">g</span>
+          </div>
+          {error && (
+            <p id={`${id}-error`} className="text-xl font-semibold text-over">
+              {error}
+            </p>
+          )}
+        </div>
+        <button type="submit" className={primaryButton}>
+          Next: lots
+        </button>
+        <button
+          type="button"
+          aria-expanded={estimating}
+          onClick={() => setEstimating((e) => !e)}
+          className={secondaryButton}
+        >
+          {estimating ? 'Close the volume estimator' : 'Work it out from the mold'}
+        </button>
+      </form>
+      {estimating && (
+        <VolumeEstimator
+          material={planMaterial}
+          {...(planScale ? { scale: planScale } : {})}
+          onUse={(totalMassG) => {
+            // Up to whole tenths of a gram: a short batch spoils the pour, a tenth more costs
+            // nothing. The small allowance keeps float noise (165.000…01) from adding a tenth.
+            setValue('totalMassG', Math.ceil(totalMassG * 10 - 1e-6) / 10, {
+              shouldValidate: true,
+            });
+            setEstimating(false);
+          }}
+        />
+      )}
+    </div>
+  );
+}

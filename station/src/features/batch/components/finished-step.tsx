@@ -1,0 +1,45 @@
+import type { Batch, Material } from '@tareline/protocol';
+import { SavedBatch } from './after-save/saved-batch';
+import { primaryButton } from './buttons';
+
+/**
+ * Step 6: what the hub committed. Only ever shown for a batch the hub itself says is saved (or
+ * abandoned): nothing is shown as saved that is not on its disk.
+ */
+export function FinishedStep({
+  batch,
+  material,
+  onNext,
+}: {
+  batch: Batch;
+  material: Material | undefined;
+  onNext: () => void;
+}) {
+  return (
+    <div className="flex flex-col gap-6">
+      {/* At the top: the saved page is long (pot life, label, steps) and this is the way on. */}
+      <div className="flex justify-end">
+        <button type="button" onClick={onNext} className={primaryButton}>
+          Next batch
+        </button>
+      </div>
+      {batch.state === 'saved' ? (
+        // SavedBatch opens with the batch number and the hub's verdict.
+        material ? (
+          <SavedBatch batch={batch} material={material} />
+        ) : (
+          <p role="status" className="text-3xl font-bold">
+            Batch {batch.id} saved
+          </p>
+        )
+      ) : (
+        <p
+          role="status"
+          className="rounded-2xl bg-panel px-6 py-4 text-3xl font-bold ring-1 ring-line"
+        >
+          Batch {batch.id} abandoned: {batch.abandonReason}
+        </p>
+      )}
+    </div>
+  );
+}
