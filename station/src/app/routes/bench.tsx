@@ -1,5 +1,7 @@
 import { BenchScreen } from '../../features/auth/components/bench-screen';
 import { BenchFlow } from '../../features/batch/components/bench-flow';
+import { useBenches } from '../../features/scale/api/get-benches';
+import { SimulatorPanel } from '../../features/simulator/components/simulator-panel';
 import { useSession } from '../../lib/auth';
 
 /** The bench screen: sign-in while nobody is signed in here, else the bench's pages. */
@@ -10,8 +12,9 @@ export function BenchRoute() {
 /** What a signed-in operator sees first: the guided flow for the bench they signed in at. */
 export function BenchHomeRoute() {
   const benchId = useSession()?.bench?.id;
+  const bench = useBenches().data?.find((b) => b.id === benchId);
   return (
-    <section aria-labelledby="bench-title" className="w-full">
+    <section aria-labelledby="bench-title" className="w-full space-y-6">
       <h1 id="bench-title" className="sr-only">
         Bench
       </h1>
@@ -19,6 +22,17 @@ export function BenchHomeRoute() {
         <BenchFlow key={benchId} benchId={benchId} />
       ) : (
         <p className="text-xl">Sign in at a bench to weigh a batch.</p>
+      )}
+      {benchId && bench?.scale.transport === 'simulated' && (
+        // Below the flow and folded: a demo and training aid, not part of a real pour.
+        <details className="rounded-xl bg-panel p-4">
+          <summary className="flex min-h-14 cursor-pointer items-center text-xl font-semibold">
+            No balance here: drive the simulated scale
+          </summary>
+          <div className="mt-3">
+            <SimulatorPanel benchId={benchId} />
+          </div>
+        </details>
       )}
     </section>
   );
