@@ -109,12 +109,28 @@ afterEach(async () => {
   await Promise.all(links.splice(0).map((l) => l.stop()));
 });
 
-function startLink(url: string, scale = new MockScale()) {
+/** A serial transport whose device file comes and goes with the mock scale's cable. */
+class VanishingSerialTransport extends SerialTransport {
+  constructor(
+    settings: SerialLinkSettings,
+    private readonly scale: MockScale,
+  ) {
+    super(settings, scale.binding);
+  }
+  override stillThere(): Promise<boolean> {
+    return Promise.resolve(this.scale.plugged);
+  }
+}
+
+function startLink(url: string, scale = new MockScale(), options: { vanishing?: boolean } = {}) {
   const settings = parseScaleUrl(url.replace('PATH', scale.path)) as ScaleLinkSettings;
+  const serial = settings as SerialLinkSettings;
   const link = new ScaleLink(
     'bench-t',
     settings,
-    new SerialTransport(settings as SerialLinkSettings, scale.binding),
+    options.vanishing
+      ? new VanishingSerialTransport(serial, scale)
+      : new SerialTransport(serial, scale.binding),
     FAST,
   );
   links.push(link);
@@ -289,6 +305,23 @@ describe('ScaleLink over the mock serial binding', () => {
     expect(seen.lastIndexOf('online')).toBeGreaterThan(seen.indexOf('offline'));
     // The old port was released: only the new one is open.
     expect(scale.ports.filter((p) => p.isOpen)).toHaveLength(1);
+  });
+
+  it('goes offline when the device vanishes without an I/O error, and reopens it when back', async () => {
+    // A pseudo-terminal or adapter can disappear while the open port just goes quiet.
+    const { link, scale } = startLink('serial://PATH?format=headered', new MockScale(), {
+      vanishing: true,
+    });
+    await until('the port to open', () => scale.ports.length === 1);
+    scale.print('headered', { grams: 10 });
+    await until('online', stateIs(link, 'online'));
+    scale.plugged = false;
+    await until('offline', stateIs(link, 'offline'), 3_000);
+    expect(link.status().detail).toMatch(/port has gone|No such file/);
+    scale.plugged = true;
+    await until('the port to reopen', () => scale.ports.length === 2 && scale.port.isOpen);
+    scale.print('headered', { grams: 11 });
+    await until('online again', stateIs(link, 'online'));
   });
 
   it('reports an error for lines it cannot read (wrong baud rate) and recovers', async () => {

@@ -282,7 +282,22 @@ export class ScaleLink {
           : `${this.transport.description} is open but the scale printed nothing for ${seconds} s ` +
               '(is it switched on and set to print continuously?)',
       );
+      this.checkStillThere();
     }, this.timings.staleAfterMs);
+  }
+
+  /** Quiet: if the device itself has gone, end the connection so the link reopens it. */
+  private checkStillThere(): void {
+    const stillThere = this.transport.stillThere;
+    if (!stillThere) return;
+    stillThere.call(this.transport).then(
+      (there) => {
+        if (!there) this.endConnection?.('the port has gone (unplugged?)');
+        // Still there but quiet: look again after another quiet spell.
+        else this.staleTimer?.refresh();
+      },
+      () => this.staleTimer?.refresh(),
+    );
   }
 
   // ---- lines --------------------------------------------------------------------------------

@@ -17,6 +17,12 @@ export interface ScaleTransport {
   /** For people: `serial /dev/ttyUSB0 9600 8N1`. */
   readonly description: string;
   open(): Promise<ScaleConnection>;
+  /**
+   * Whether the device is still there, asked while an open connection has gone quiet. A pseudo-
+   * terminal or USB adapter that vanishes does not always close the open port; without this
+   * check the link would stay `stale` instead of going `offline` and reopening.
+   */
+  stillThere?(): Promise<boolean>;
   /** Frees what the transport itself holds (the simulator); after this `open` is not called. */
   dispose(): Promise<void>;
 }

@@ -1,3 +1,4 @@
+import { access } from 'node:fs/promises';
 import type { BindingInterface } from '@serialport/bindings-interface' with {
   'resolution-mode': 'require',
 };
@@ -53,6 +54,15 @@ export class SerialTransport implements ScaleTransport {
       ? new SerialPortStream({ ...options, binding: this.binding })
       : new SerialPort(options);
     return openSerialStream(port, this.link.path);
+  }
+
+  async stillThere(): Promise<boolean> {
+    // A binding other than the real one (the mock) has no device file to look at.
+    if (this.binding) return true;
+    return access(this.link.path).then(
+      () => true,
+      () => false,
+    );
   }
 
   async dispose(): Promise<void> {}
