@@ -1,21 +1,7 @@
 import type { Lot, Material } from '@tareline/protocol';
+import { sc14 } from '../../../testing/fixtures';
 
-/** The demo shop's filled surface-coat epoxy (invented), as `GET /api/materials` lists it. */
-export const sc14: Material = {
-  id: 'mat-sc14',
-  name: 'Grey surface-coat epoxy SC-14',
-  ratio: { basis: 'weight', parts: [100, 14] },
-  specificGravity: 1.65,
-  weightRatio: [100, 14],
-  partLabels: ['Resin', 'Hardener'],
-  tolerancePct: 1,
-  potLifeMin: 25,
-  potLifeMassG: 100,
-  agitateMin: 3,
-  cautions: ['Amine hardeners can sensitise skin: wear nitrile gloves.'],
-  sdsRef: 'SDS binder, tab 3',
-  active: true,
-};
+export { sc14 };
 
 export const retired: Material = {
   ...sc14,

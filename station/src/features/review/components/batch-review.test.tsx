@@ -5,28 +5,19 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { routes } from '../../../app/router';
 import { setSession } from '../../../lib/auth';
 import { signInAnswer, stubHub } from '../../../testing/fake-hub';
+import { savedBatch } from '../../../testing/fixtures';
 import { renderRoutes } from '../../../testing/render';
 
+// Review shows what the hub sent; the lot warning is the hub's own words.
 function batch(overrides: Partial<Batch> = {}): Batch {
-  return {
+  return savedBatch({
     id: 12,
-    state: 'saved',
-    verdict: 'GO',
-    benchId: 'bench-1',
-    materialId: 'm-sc14',
-    materialName: 'Grey surface-coat epoxy SC-14',
     operator: { id: 'p-joss', name: 'Joss Whitcombe' },
     totalMassG: 114,
-    weightRatio: [100, 14],
     parts: [
       { label: 'Part A', targetG: 100, actualG: 100.0 },
       { label: 'Part B', targetG: 14, actualG: 14.1 },
     ],
-    active: null,
-    rescue: null,
-    ratioDeviationPct: 0.714,
-    tolerancePct: 1,
-    readabilityG: 0.01,
     lots: [
       {
         part: 1,
@@ -35,19 +26,13 @@ function batch(overrides: Partial<Batch> = {}): Batch {
         warnings: [{ code: 'LOT_EXPIRED', message: 'Lot SC14H-2511 expired on 2026-11-30' }],
       },
     ],
-    potLifeMin: 25,
-    potLifeMassG: 100,
-    abandonReason: null,
-    interruptedReason: null,
     steps: {
       created: '2026-12-02T08:00:00.000Z',
       confirmedA: '2026-12-02T08:01:00.000Z',
       saved: '2026-12-02T08:02:00.000Z',
     },
-    createdAt: '2026-12-02T08:00:00.000Z',
-    savedAt: '2026-12-02T08:02:00.000Z',
     ...overrides,
-  };
+  });
 }
 
 afterEach(() => setSession(null));

@@ -1,61 +1,19 @@
-import type { Batch, Material } from '@tareline/protocol';
+import type { Batch } from '@tareline/protocol';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { savedBatch as savedBatchFixture, sc14 } from '../../../../testing/fixtures';
 import { SavedBatch } from './saved-batch';
 
 // Local wall-clock times, so the label's clock reads the same in any time zone the tests run in.
 const SAVED_AT = new Date(2027, 2, 4, 14, 5, 0);
 
-const material: Material = {
-  id: 'mat-sc14',
-  name: 'Grey surface-coat epoxy SC-14',
-  ratio: { basis: 'weight', parts: [100, 14] },
-  specificGravity: 1.65,
-  weightRatio: [100, 14],
-  partLabels: ['Resin', 'Hardener'],
-  tolerancePct: 1,
-  potLifeMin: 25,
-  potLifeMassG: 100,
-  agitateMin: 3,
-  cautions: ['Amine hardeners can sensitise skin: wear nitrile gloves.'],
-  sdsRef: 'SDS binder, tab 3',
-  active: true,
-};
-
-function savedBatch(over: Partial<Batch> = {}): Batch {
-  return {
-    id: 42,
-    state: 'saved',
-    verdict: 'GO',
-    benchId: 'bench-1',
-    materialId: material.id,
-    materialName: material.name,
-    operator: { id: 'p-1', name: 'Wren Ashby' },
-    totalMassG: 114.1,
-    weightRatio: [100, 14],
-    parts: [
-      { label: 'Resin', targetG: 100, actualG: 100 },
-      { label: 'Hardener', targetG: 14, actualG: 14.1 },
-    ],
-    active: null,
-    rescue: null,
-    ratioDeviationPct: 0.714,
-    tolerancePct: 1,
-    readabilityG: 0.01,
-    lots: [
-      { part: 0, code: 'HRP-R-2611', lotId: 'lot-1', warnings: [] },
-      { part: 1, code: 'HRP-H-2702', lotId: 'lot-2', warnings: [] },
-    ],
-    potLifeMin: 25,
-    potLifeMassG: 100,
-    abandonReason: null,
-    interruptedReason: null,
-    steps: {},
+const material = sc14;
+const savedBatch = (over: Partial<Batch> = {}): Batch =>
+  savedBatchFixture({
     createdAt: SAVED_AT.toISOString(),
     savedAt: SAVED_AT.toISOString(),
     ...over,
-  };
-}
+  });
 
 afterEach(() => {
   vi.useRealTimers();
