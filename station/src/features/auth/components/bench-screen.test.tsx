@@ -3,6 +3,7 @@ import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { routes } from '../../../app/router';
 import { setSession } from '../../../lib/auth';
+import { reportBenchActivity } from '../../../lib/bench-activity';
 import { signInAnswer, stubHub } from '../../../testing/fake-hub';
 import { renderRoutes } from '../../../testing/render';
 
@@ -150,6 +151,13 @@ describe('signed in at the bench', () => {
     );
 
     fireEvent.pointerDown(document.body);
+    act(() => vi.advanceTimersByTime(1_000));
+    expect(screen.queryByText(/Signing out in/)).not.toBeInTheDocument();
+
+    // Hands busy pouring: the scale moving counts as someone at the bench.
+    act(() => vi.advanceTimersByTime(40_000));
+    expect(screen.getByRole('alert')).toHaveTextContent(/Signing out in/);
+    act(() => reportBenchActivity());
     act(() => vi.advanceTimersByTime(1_000));
     expect(screen.queryByText(/Signing out in/)).not.toBeInTheDocument();
 

@@ -1,10 +1,11 @@
 import { useEffect, useRef, useState } from 'react';
+import { BENCH_ACTIVITY_EVENT } from '../../../lib/bench-activity';
 
-const ACTIVITY_EVENTS = ['pointerdown', 'keydown', 'touchstart', 'wheel'] as const;
+const ACTIVITY_EVENTS = ['pointerdown', 'keydown', 'touchstart', 'wheel', BENCH_ACTIVITY_EVENT];
 
 /**
  * Seconds left before an idle screen signs out, or null while more than `warnS` remain. Any touch,
- * click or key starts the time again. Calls `onIdle` once when it runs out.
+ * click or key starts the time again, and so does the scale moving under a pour. Calls `onIdle` once when it runs out.
  */
 export function useIdleCountdown(
   idleMinutes: number,

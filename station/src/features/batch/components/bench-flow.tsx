@@ -1,7 +1,8 @@
-import type { Material } from '@tareline/protocol';
+import { WEIGHING_STATES, type Material } from '@tareline/protocol';
 import { useState } from 'react';
 import { useSession } from '../../../lib/auth';
 import { useLiveBench } from '../../scale/hooks/use-live-bench';
+import { usePourKeepsAwake } from '../hooks/use-pour-keeps-awake';
 import { useCreateBatch } from '../api/create-batch';
 import { useMaterials } from '../api/get-materials';
 import { useBenchBatch } from '../hooks/use-bench-batch';
@@ -46,6 +47,11 @@ export function BenchFlow({ benchId }: { benchId: string }) {
   const [draft, setDraft] = useState<Draft>(FRESH);
   const create = useCreateBatch({ onSuccess: bench.offer });
   const batch = bench.batch;
+  usePourKeepsAwake(
+    live.reading,
+    batch?.readabilityG ?? 0.01,
+    !!batch && (WEIGHING_STATES as readonly string[]).includes(batch.state),
+  );
 
   const step: StepKey = !batch
     ? draft.step
