@@ -129,6 +129,21 @@ describe('the bench flow in Chromium', () => {
     const batchId = Number((await savedHeading.textContent())!.match(/\d+/)![0]);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-saved.png'), fullPage: true });
 
+    // The dark bench theme: the page turns dark, and the saved screen still reads.
+    const darkTheme = page.getByRole('button', { name: 'Dark theme' });
+    await darkTheme.click();
+    await page.waitForFunction(() => document.documentElement.dataset.theme === 'dark');
+    expect(await darkTheme.getAttribute('aria-pressed')).toBe('true');
+    const background = await page.evaluate(
+      () => getComputedStyle(document.documentElement).backgroundColor,
+    );
+    const [r, g, b] = background.match(/\d+/g)!.map(Number);
+    expect(r! + g! + b!).toBeLessThan(3 * 80);
+    await savedHeading.waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'bench-flow-saved-dark.png') });
+    await darkTheme.click();
+    await page.waitForFunction(() => document.documentElement.dataset.theme === 'light');
+
     // The print preview holds the cup label and nothing of the navigation.
     await page.emulateMedia({ media: 'print' });
     const label = page.locator('[data-print="label"]');
@@ -170,5 +185,12 @@ describe('the bench flow in Chromium', () => {
     // Ready for the next batch.
     await page.getByRole('button', { name: 'Next batch' }).click();
     await page.getByRole('button', { name: /Grey surface-coat epoxy SC-14/ }).waitFor(LONG);
+
+    // What the label's QR code opens: the batch's own page.
+    await page.goto(`${hub.url}/review/batches/${batchId}`);
+    await page.getByRole('heading', { name: `Batch ${batchId}` }).waitFor(LONG);
+    expect(await page.getByText('Joss Whitcombe').first().isVisible()).toBe(true);
+    await page.getByRole('img', { name: /Pour trace: \d+ readings/ }).waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'batch-review.png'), fullPage: true });
   }, 240_000);
 });

@@ -43,7 +43,15 @@ export function BatchDetail() {
   }
   const b = batch.data;
   const decimals = decimalsOf(b.readabilityG);
-  const steps = Object.entries(b.steps).sort(([, a], [, z]) => a.localeCompare(z));
+  // By time; steps of the same millisecond (part B done and saved) in the order they happen.
+  // The hub's JSON column does not keep key order, so the order comes from STEP_SHOWN.
+  const rank = (step: string) => {
+    const i = Object.keys(STEP_SHOWN).indexOf(step);
+    return i === -1 ? Object.keys(STEP_SHOWN).length : i;
+  };
+  const steps = Object.entries(b.steps).sort(
+    ([s1, a], [s2, z]) => a.localeCompare(z) || rank(s1) - rank(s2),
+  );
   return (
     <article aria-labelledby="batch-title" className="mx-auto max-w-5xl space-y-6">
       <p>

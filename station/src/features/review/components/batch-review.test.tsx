@@ -26,10 +26,12 @@ function batch(overrides: Partial<Batch> = {}): Batch {
         warnings: [{ code: 'LOT_EXPIRED', message: 'Lot SC14H-2511 expired on 2026-11-30' }],
       },
     ],
+    // In the order the hub's JSON column may give them back: not the order they happened.
     steps: {
-      created: '2026-12-02T08:00:00.000Z',
-      confirmedA: '2026-12-02T08:01:00.000Z',
       saved: '2026-12-02T08:02:00.000Z',
+      created: '2026-12-02T08:00:00.000Z',
+      confirmedB: '2026-12-02T08:02:00.000Z',
+      confirmedA: '2026-12-02T08:01:00.000Z',
     },
     ...overrides,
   });
@@ -94,7 +96,10 @@ describe('batch review', () => {
     expect(
       screen.getByRole('img', { name: /5 readings over 4 s, highest 100\.0 g/ }),
     ).toBeInTheDocument();
-    expect(screen.getByText('Part A done')).toBeInTheDocument();
+    const steps = within(screen.getByRole('region', { name: 'Steps' })).getAllByRole('listitem');
+    const stepName = (li: HTMLElement) =>
+      li.textContent!.slice(li.querySelector('time')!.textContent!.length);
+    expect(steps.map(stepName)).toEqual(['Started', 'Part A done', 'Part B done', 'Saved']);
   });
 
   it('says so when the batch does not exist', async () => {
