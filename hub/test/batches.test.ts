@@ -408,6 +408,12 @@ describe('a hub restarted with batches in every state', () => {
           active: { part: 0, tared: false },
         });
         expect(resumed.body.parts[0]!.actualG).toBeNull();
+        // Joss started it, the lead resumed it: both are named with the batch from now on.
+        expect(resumed.body.operator.name).toBe('Joss Whitcombe');
+        expect(resumed.body.handledBy).toEqual([
+          { id: expect.any(String), name: 'Ilse Varga', role: 'lead', at: expect.any(String) },
+        ]);
+        expect(w.handledBy).toBeUndefined();
         expect(resumed.body.active!.targetG).toBeCloseTo(50, 1);
       } finally {
         await hub.close();

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { lotWarningSchema } from './materials.js';
+import { roleSchema } from './roles.js';
 import { positiveMeasure } from './mix/cavity.js';
 
 export const batchStateSchema = z.enum([
@@ -89,6 +90,13 @@ export const batchSchema = z.object({
   materialId: z.string(),
   materialName: z.string(),
   operator: z.object({ id: z.string(), name: z.string() }),
+  /**
+   * Everyone else who acted on the batch (a shift change mid-batch, a lead resuming it), each
+   * with the time of their first action; absent when only the operator did.
+   */
+  handledBy: z
+    .array(z.object({ id: z.string(), name: z.string(), role: roleSchema, at: z.string() }))
+    .optional(),
   totalMassG: z.number(),
   weightRatio: z.array(z.number()),
   parts: z.array(batchPartSchema),

@@ -50,7 +50,11 @@ type BatchRow = typeof batches.$inferSelect;
 type BatchDetail = Pick<
   BatchRecord,
   'parts' | 'active' | 'topUpQueue' | 'rescue' | 'steps' | 'lots'
-> & { potLifeMin: number | null; potLifeMassG: number | null };
+> & {
+  potLifeMin: number | null;
+  potLifeMassG: number | null;
+  handledBy?: NonNullable<Batch['handledBy']>;
+};
 
 /** A bench's batch in progress (weighing or interrupted), held in memory beside its row. */
 interface BenchSession {
@@ -341,10 +345,28 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
     return this.enqueue(session, async () => {
       const before = session.rec;
       const next = await change(session);
+      this.noteHandler(session, user);
       await this.commit(session, next);
       await this.tareIfNeeded(session, before);
       return this.toBatch(session.row, session.rec);
     });
+  }
+
+  /**
+   * Someone other than the operator who started the batch acts on it: they are named with the
+   * batch from then on, so a batch handed over at a shift change is not credited to one person.
+   */
+  private noteHandler(session: BenchSession, user: AuthUser): void {
+    const detail = session.row.detail as BatchDetail;
+    const handledBy = detail.handledBy ?? [];
+    if (user.id === session.row.operatorId || handledBy.some((h) => h.id === user.id)) return;
+    session.row = {
+      ...session.row,
+      detail: {
+        ...detail,
+        handledBy: [...handledBy, { id: user.id, name: user.name, role: user.role, at: nowIso() }],
+      },
+    };
   }
 
   private enqueue<T>(session: BenchSession, task: () => Promise<T>): Promise<T> {
@@ -529,6 +551,9 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
       lots: rec.lots,
       potLifeMin: (session.row.detail as BatchDetail).potLifeMin,
       potLifeMassG: (session.row.detail as BatchDetail).potLifeMassG,
+      ...((session.row.detail as BatchDetail).handledBy
+        ? { handledBy: (session.row.detail as BatchDetail).handledBy }
+        : {}),
       ...(tareLost ? { tareLost: true } : {}),
     };
     const [row] = await this.database.db
@@ -598,6 +623,7 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
       materialId: row.materialId,
       materialName: row.materialName,
       operator: { id: row.operatorId, name: row.operatorName },
+      ...(d.handledBy?.length ? { handledBy: d.handledBy } : {}),
       totalMassG: rec.totalMassG,
       weightRatio: rec.weightRatio,
       parts: rec.parts,

@@ -70,6 +70,16 @@ export function BatchDetail() {
         <dd>{b.materialName}</dd>
         <dt className="text-muted">Operator</dt>
         <dd>{b.operator.name}</dd>
+        {b.handledBy && (
+          <>
+            <dt className="text-muted">Also handled by</dt>
+            <dd>
+              {b.handledBy
+                .map((h) => `${h.name} (${h.role}, from ${new Date(h.at).toLocaleTimeString()})`)
+                .join('; ')}
+            </dd>
+          </>
+        )}
         <dt className="text-muted">Bench</dt>
         <dd>{b.benchId}</dd>
         <dt className="text-muted">Mix ratio by weight</dt>

@@ -76,6 +76,14 @@ describe('batch review', () => {
       'GET /batches/12': () => [
         200,
         batch({
+          handledBy: [
+            {
+              id: 'p-priya',
+              name: 'Priya Sandell',
+              role: 'operator',
+              at: '2026-12-02T08:01:30.000Z',
+            },
+          ],
           trace: [
             [0, 0],
             [1000, 50],
@@ -88,6 +96,8 @@ describe('batch review', () => {
     });
     renderRoutes(routes, '/review/batches/12');
     expect(await screen.findByRole('heading', { name: 'Batch 12' })).toBeInTheDocument();
+    // Handed over mid-batch: both people are named.
+    expect(screen.getByText(/^Priya Sandell \(operator, from /)).toBeInTheDocument();
     const partB = screen.getByRole('row', { name: /Part B/ });
     expect(within(partB).getByText('14.00 g')).toBeInTheDocument();
     expect(within(partB).getByText('14.10 g')).toBeInTheDocument();
