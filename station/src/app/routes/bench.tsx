@@ -1,12 +1,13 @@
 import { BenchScreen } from '../../features/auth/components/bench-screen';
 import { BenchFlow } from '../../features/batch/components/bench-flow';
+import { PotLifeReminder } from '../../features/batch/components/pot-life-reminder';
 import { useBenches } from '../../features/scale/api/get-benches';
 import { SimulatorPanel } from '../../features/simulator/components/simulator-panel';
 import { useSession } from '../../lib/auth';
 
 /** The bench screen: sign-in while nobody is signed in here, else the bench's pages. */
 export function BenchRoute() {
-  return <BenchScreen />;
+  return <BenchScreen whileSignedOut={(benchId) => <PotLifeReminder benchId={benchId} />} />;
 }
 
 /** What a signed-in operator sees first: the guided flow for the bench they signed in at. */

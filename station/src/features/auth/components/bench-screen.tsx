@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Outlet } from 'react-router-dom';
 import { useSession } from '../../../lib/auth';
 import { useSignOut } from '../../../lib/sign-out';
@@ -9,10 +10,22 @@ import { BenchSignIn } from './bench-sign-in';
  * The bench: sign-in while nobody is signed in at this bench, otherwise a bar naming who is
  * signed in, "Switch person", the idle countdown, and the bench's own pages below.
  */
-export function BenchScreen() {
+export function BenchScreen({
+  whileSignedOut,
+}: {
+  /** What the bench shows under its sign-in, whoever comes next (nothing about a person). */
+  whileSignedOut?: (benchId: string) => ReactNode;
+} = {}) {
   const session = useSession();
   const benchId = useBenchId();
-  if (!session || session.bench?.id !== benchId) return <BenchSignIn benchId={benchId} />;
+  if (!session || session.bench?.id !== benchId) {
+    return (
+      <>
+        <BenchSignIn benchId={benchId} />
+        {whileSignedOut?.(benchId)}
+      </>
+    );
+  }
   return <SignedInBench key={session.token} />;
 }
 

@@ -1,4 +1,6 @@
 import type { Batch, Material } from '@tareline/protocol';
+import { useEffect } from 'react';
+import { rememberLastPoured } from '../utils/last-poured';
 import { SavedBatch } from './after-save/saved-batch';
 import { primaryButton } from './buttons';
 
@@ -15,6 +17,8 @@ export function FinishedStep({
   material: Material | undefined;
   onNext: () => void;
 }) {
+  // The cup outlives this screen: keep its pot life for the signed-out bench.
+  useEffect(() => rememberLastPoured(batch.benchId, batch), [batch]);
   return (
     <div className="flex flex-col gap-6">
       {/* At the top: the saved page is long (pot life, label, steps) and this is the way on. */}
