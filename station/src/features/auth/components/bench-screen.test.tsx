@@ -146,9 +146,11 @@ describe('signed in at the bench', () => {
     act(() => vi.advanceTimersByTime(29_000));
     expect(screen.queryByText(/Signing out in/)).not.toBeInTheDocument();
     act(() => vi.advanceTimersByTime(2_000));
-    expect(screen.getByRole('alert')).toHaveTextContent(
-      'Signing out in 29 s: touch the screen to stay signed in',
-    );
+    // By its words: the bench flow below may show alerts of its own (the faked hub has no
+    // materials), depending on how fast its requests come back.
+    expect(
+      screen.getByText('Signing out in 29 s: touch the screen to stay signed in'),
+    ).toHaveAttribute('role', 'alert');
 
     fireEvent.pointerDown(document.body);
     act(() => vi.advanceTimersByTime(1_000));
@@ -156,7 +158,7 @@ describe('signed in at the bench', () => {
 
     // Hands busy pouring: the scale moving counts as someone at the bench.
     act(() => vi.advanceTimersByTime(40_000));
-    expect(screen.getByRole('alert')).toHaveTextContent(/Signing out in/);
+    expect(screen.getByText(/Signing out in \d+ s/)).toBeInTheDocument();
     act(() => reportBenchActivity());
     act(() => vi.advanceTimersByTime(1_000));
     expect(screen.queryByText(/Signing out in/)).not.toBeInTheDocument();
