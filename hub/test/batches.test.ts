@@ -285,6 +285,22 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
       totalMassG: 50,
     });
     expect(elsewhere.status).toBe(403);
+    // Batch numbers out of the database's range, or not numbers: a 400 naming `id`, never a 500.
+    for (const id of ['99999999999999999999', 'abc', '-3', '1.5']) {
+      const odd = await bench.post(`/${id}/next`);
+      expect(odd.status).toBe(400);
+      expect(odd.body).toMatchObject({ errors: [{ path: 'id' }] });
+    }
+    const garbled = await fetch(`${hub.url}/api/batches`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${bench.token}` },
+      body: '{"benchId": bench-1',
+    });
+    expect(garbled.status).toBe(400);
+    expect(await garbled.json()).toEqual({
+      message: 'The request body is not valid JSON',
+      errors: [],
+    });
     const bad = await bench.post('', { benchId: 'bench-1', materialId: sc14.id, totalMassG: -5 });
     expect(bad.status).toBe(400);
     expect(bad.body).toMatchObject({ errors: [{ path: 'totalMassG' }] });

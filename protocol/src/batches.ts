@@ -3,6 +3,13 @@ import { lotWarningSchema } from './materials.js';
 import { roleSchema } from './roles.js';
 import { positiveMeasure } from './mix/cavity.js';
 
+/** A batch number as it appears in an address: PostgreSQL `integer` ids, 1 to 2³¹ − 1. */
+export const batchNumberSchema = z.coerce
+  .number({ error: 'A batch number is a whole number' })
+  .int({ error: 'A batch number is a whole number' })
+  .positive({ error: 'A batch number is a whole number' })
+  .max(2_147_483_647, { error: 'No batch has a number that large' });
+
 export const batchStateSchema = z.enum([
   'weighing-a',
   'weighing-b',

@@ -5,13 +5,14 @@ import {
   Get,
   Inject,
   Param,
-  ParseIntPipe,
+  type PipeTransform,
   Post,
   Query,
   UseFilters,
 } from '@nestjs/common';
 import {
   abandonBatchSchema,
+  batchNumberSchema,
   batchStateSchema,
   createBatchSchema,
   type Batch,
@@ -32,13 +33,16 @@ const listQuerySchema = z.object({
 const currentQuerySchema = z.object({
   benchId: z.string({ error: 'Name the bench' }).min(1, { error: 'Name the bench' }),
 });
-const batchId = new ParseIntPipe({
-  exceptionFactory: () =>
-    new BadRequestException({
-      message: 'A batch number is a whole number',
-      errors: [{ path: 'id', message: 'A batch number is a whole number' }],
-    }),
-});
+/** The `:id` of a batch route; a bad one is a 400 naming `id`, never a database error. */
+class BatchNumberPipe implements PipeTransform<unknown, number> {
+  transform(value: unknown): number {
+    const parsed = batchNumberSchema.safeParse(value);
+    if (parsed.success) return parsed.data;
+    const message = parsed.error.issues[0]?.message ?? 'A batch number is a whole number';
+    throw new BadRequestException({ message, errors: [{ path: 'id', message }] });
+  }
+}
+const batchId = new BatchNumberPipe();
 
 /** Thin: every rule lives in BatchesService and the batch state machine. */
 @Controller('batches')

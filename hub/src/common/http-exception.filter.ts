@@ -23,6 +23,14 @@ export class HttpExceptionFilter implements ExceptionFilter {
     if (response.headersSent) return;
     if (exception instanceof HttpException) {
       const status = exception.getStatus();
+      // Nest maps body-parser's SyntaxError to a 400 carrying the parser's own words.
+      if (status === 400 && exception.cause instanceof SyntaxError) {
+        response.status(status).json({
+          message: 'The request body is not valid JSON',
+          errors: [],
+        } satisfies ApiError);
+        return;
+      }
       response.status(status).json(toApiError(exception.getResponse(), exception.message));
       return;
     }
