@@ -7,8 +7,9 @@ import type {
   SimulatorStep,
 } from '@tareline/protocol';
 import { io, type Socket } from 'socket.io-client';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { BatchesService } from '../src/batches/batches.service.js';
+import { Database } from '../src/database/database.js';
 import { ScalesService } from '../src/scales/scales.service.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
@@ -187,6 +188,32 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
     await bench.simulate([{ do: 'lift-cup' }]);
   });
 
+  it('does not show a batch as saved while the database refuses it, and saves once it can', async () => {
+    await bench.simulate([{ do: 'return-cup' }]);
+    const b = await bench.throughPartA(sc14.id);
+    const db = hub.app.get(Database).db;
+    const refuse = vi.spyOn(db, 'update').mockImplementation(() => {
+      throw new Error('disk full');
+    });
+    try {
+      await bench.simulate([{ do: 'pour', grams: 14.1, rateGPerS: 4 }, { do: 'settle' }]);
+      await until('the bench told of the failed save', () =>
+        bench.pours.some((p) => p.batchId === b.id && p.saveProblem !== undefined),
+      );
+      const told = bench.pours.findLast((p) => p.saveProblem !== undefined)!;
+      expect(told.saveProblem).toMatch(/could not write the batch.*keeps trying/);
+      expect(bench.latestBatch()).toMatchObject({ id: b.id, state: 'weighing-b' });
+    } finally {
+      refuse.mockRestore();
+    }
+    // The disk is back: the next steady reading in the band saves it, and the problem is gone.
+    await until('saved', () => bench.latestBatch()?.state === 'saved');
+    expect(bench.latestBatch()).toMatchObject({ id: b.id, verdict: 'GO' });
+    const stored = await call<Batch>(hub, 'GET', `/api/batches/${b.id}`, { token: bench.token });
+    expect(stored.body.state).toBe('saved');
+    await bench.simulate([{ do: 'lift-cup' }]);
+  });
+
   it('offers 3.57 g of part A after 14.5 g of part B, then saves GO once topped up', async () => {
     await bench.simulate([{ do: 'return-cup' }]);
     const b = await bench.throughPartA(sc14.id);
@@ -266,7 +293,13 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
     expect(gone.body.parts[0]!.actualG!).toBeCloseTo(100, 1);
     const lead = await login(hub, DEMO.lead.email, DEMO.lead.password);
     const list = await call<Batch[]>(hub, 'GET', '/api/batches?benchId=bench-1', { token: lead });
-    expect(list.body.map((x) => x.state)).toEqual(['abandoned', 'saved', 'saved', 'saved']);
+    expect(list.body.map((x) => x.state)).toEqual([
+      'abandoned',
+      'saved',
+      'saved',
+      'saved',
+      'saved',
+    ]);
   });
 
   it('refuses a second open batch on the bench, and an operator at another bench', async () => {

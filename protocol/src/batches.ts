@@ -154,5 +154,10 @@ export const pourEventSchema = z.object({
   saveInMs: z.number().nullable(),
   /** While OVER: what the rescue would take. */
   rescue: rescueSchema.nullable(),
+  /**
+   * Why the last automatic save did not reach the database, while the hub keeps retrying on
+   * each steady reading; absent when nothing went wrong. Nothing is shown as saved meanwhile.
+   */
+  saveProblem: z.string().optional(),
 });
 export type PourEvent = z.infer<typeof pourEventSchema>;

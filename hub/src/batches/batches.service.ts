@@ -66,6 +66,8 @@ interface BenchSession {
   traceDirty: boolean;
   /** When the current reading first went GO (ms), for the dwell before saving. */
   goSince: number | null;
+  /** Why the last automatic save failed to reach the database; undefined once one succeeds. */
+  saveProblem?: string;
   lastPourEmitMs: number;
   lastVerdict: PourVerdict | null;
   /** Serialises every change to this batch: auto-save and operator intents never race. */
@@ -117,7 +119,7 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
     }
     for (const benchId of this.scales.benchIds()) this.watchBench(benchId);
     this.scales.onAttach((benchId) => this.watchBench(benchId));
-    this.flushTimer = setInterval(() => this.flushTraces(), 2000);
+    this.flushTimer = setInterval(() => void this.flushTraces(), 2000);
   }
 
   async onApplicationShutdown(): Promise<void> {
@@ -388,6 +390,7 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
     }
     session.rec = rec;
     session.goSince = null;
+    session.saveProblem = undefined;
     if (!isWeighing(rec.state) && rec.state !== 'interrupted') {
       this.sessions.delete(session.row.benchId);
       this.logger.log(
@@ -482,6 +485,7 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
         verdict,
         saveInMs,
         rescue: verdict === 'OVER' ? this.proposal(session, reading) : null,
+        ...(session.saveProblem ? { saveProblem: session.saveProblem } : {}),
       });
     }
   }
@@ -495,8 +499,13 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
       await this.commit(session, next);
       await this.tareIfNeeded(session, expected);
     }).catch((err: unknown) => {
-      // Not saved: the reading moved, or the database refused. The next steady reading retries.
+      // Not saved: the reading moved, or the database refused. The next steady reading retries;
+      // a database failure is also told to the bench, which keeps waiting for "saved".
       session.goSince = null;
+      if (err instanceof ServiceUnavailableException) {
+        session.saveProblem = 'The hub could not write the batch to its database; it keeps trying';
+        session.lastPourEmitMs = 0;
+      }
       this.logger.warn(`Batch ${session.id} not saved yet: ${(err as Error).message}`);
     });
   }
@@ -521,14 +530,16 @@ export class BatchesService implements OnApplicationBootstrap, OnApplicationShut
     for (const session of this.sessions.values()) {
       if (!session.traceDirty) continue;
       session.traceDirty = false;
-      await this.database.db
-        .update(batches)
-        .set({ trace: encodeTrace(session.trace), updatedAt: new Date() })
-        .where(eq(batches.id, session.id))
-        .catch((err: unknown) => {
-          session.traceDirty = true;
-          this.logger.warn(`Trace of batch ${session.id} not written yet: ${String(err)}`);
-        });
+      try {
+        await this.database.db
+          .update(batches)
+          .set({ trace: encodeTrace(session.trace), updatedAt: new Date() })
+          .where(eq(batches.id, session.id));
+      } catch (err) {
+        // Kept in memory and written with the next flush or state change.
+        session.traceDirty = true;
+        this.logger.warn(`Trace of batch ${session.id} not written yet: ${String(err)}`);
+      }
     }
   }
 

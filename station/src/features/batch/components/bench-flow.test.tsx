@@ -282,6 +282,28 @@ describe('weighing on the live gauge', { timeout: 20_000 }, () => {
     expect(requests.at(-1)).toMatchObject({ method: 'POST', path: '/batches/7/rescue' });
   });
 
+  it('says the batch is not saved while the hub cannot write it', async () => {
+    hubWith({}, partBFixture());
+    openBench();
+    await screen.findByRole('heading', { name: 'Weigh Part B (Hardener): 14.00 g' });
+    scaleOnline();
+    liveSocket().fire('reading', readingFixture(14.05, true));
+    liveSocket().fire(
+      'pour',
+      pourFixture({
+        netG: 14.05,
+        verdict: 'GO',
+        saveInMs: 0,
+        saveProblem: 'The hub could not write the batch to its database; it keeps trying',
+      }),
+    );
+    expect(screen.getByText(/^Not saved yet: The hub could not write the batch/)).toHaveTextContent(
+      'Leave the cup on the scale.',
+    );
+    expect(screen.queryByText(/saving in/)).not.toBeInTheDocument();
+    expect(screen.queryByRole('heading', { name: /saved/i })).not.toBeInTheDocument();
+  });
+
   it('gives no verdict and no countdown while the scale is offline', async () => {
     hubWith({}, partBFixture());
     openBench();

@@ -129,6 +129,13 @@ function ActivePour({
         </button>
       </>
     );
+  } else if (pour?.saveProblem) {
+    // The hub could not write the batch: it is not saved, and the cup must stay as it is.
+    actions = (
+      <p role="alert" className="rounded-xl bg-brass px-4 py-3 text-2xl font-bold text-ink">
+        Not saved yet: {pour.saveProblem}. Leave the cup on the scale.
+      </p>
+    );
   } else if (verdict === 'GO' && pour?.saveInMs != null) {
     actions = (
       <p role="status" className="text-3xl font-bold">
