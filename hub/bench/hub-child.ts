@@ -63,8 +63,18 @@ for (const id of ids) {
 }
 
 const { port } = app.getHttpServer().address() as { port: number };
+// The live socket needs a signed-in person: the demo shop's lead may watch every bench.
+const signIn = await fetch(`http://127.0.0.1:${port}/api/auth/login`, {
+  method: 'POST',
+  headers: { 'Content-Type': 'application/json' },
+  body: JSON.stringify({
+    email: 'ilse.varga@hollin-ridge.example',
+    password: 'ridge-lead-demo',
+  }),
+});
+const { token } = (await signIn.json()) as { token: string };
 serveParent([...sources.values()]);
 [...sources.values()].forEach((s, i) => s.start((i * 1000) / rateHz / benchCount));
-process.send?.({ type: 'ready', port });
+process.send?.({ type: 'ready', port, token });
 
 process.on('exit', () => rmSync(dataDir, { recursive: true, force: true }));

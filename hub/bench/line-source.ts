@@ -68,7 +68,8 @@ export class LineSource {
 
 /** Messages between the benchmark and its hub process. */
 export type ChildMessage =
-  | { type: 'ready'; port: number }
+  /** `token`: a lead's sign-in for the live socket (the hub requires one; the relay does not). */
+  | { type: 'ready'; port: number; token?: string }
   | { type: 'report'; cpuMs: number; wallMs: number; written: Record<string, [number, number][]> };
 export type ParentMessage = { type: 'start-window' } | { type: 'end-window' } | { type: 'exit' };
 

@@ -55,10 +55,12 @@ function waitMessage<T extends ChildMessage['type']>(
 async function run(variant: 'relay' | 'hub', benches: number): Promise<Result> {
   const script = resolve(here, variant === 'hub' ? 'hub-child.ts' : 'relay-child.ts');
   const child = fork(script, [String(benches), String(RATE_HZ)], {
-    execArgv: ['--import', 'tsx'],
+    // ESM hooks only: tsx's CommonJS hook would load a second @nestjs/core for the CommonJS
+    // packages (throttler), and Nest would not recognise its own Reflector.
+    execArgv: ['--import', 'tsx/esm'],
     stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
   });
-  const { port } = await waitMessage(child, 'ready');
+  const { port, token } = await waitMessage(child, 'ready');
   const received: { benchId: string; n: number; at: number }[] = [];
   let recording = false;
   const sockets: Socket[] = [];
@@ -66,6 +68,7 @@ async function run(variant: 'relay' | 'hub', benches: number): Promise<Result> {
     const benchId = `bench-b${i + 1}`;
     const socket = io(`http://127.0.0.1:${port}/live`, {
       query: { benchId },
+      auth: token ? { token } : {},
       transports: ['websocket'],
     });
     const record = (n: number) => {
