@@ -4,7 +4,7 @@ import { useState, type FormEvent } from 'react';
 import { ApiRequestError } from '../../../lib/api-client';
 import { setSession } from '../../../lib/auth';
 import { badgeSignIn } from '../api/sign-in';
-import { useBadgeScanner } from '../hooks/use-badge-scanner';
+import { useCodeScanner } from '../../../hooks/use-code-scanner';
 import { PinPad } from './pin-pad';
 
 /**
@@ -44,7 +44,7 @@ export function BenchSignIn({ benchId }: { benchId: string }) {
     signIn.mutate({ badge: code });
   };
 
-  useBadgeScanner(start, badge === null);
+  useCodeScanner(start, { enabled: badge === null });
 
   const onTyped = (event: FormEvent) => {
     event.preventDefault();

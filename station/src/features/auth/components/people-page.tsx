@@ -20,7 +20,7 @@ import {
   useSetPin,
   useUpdatePerson,
 } from '../api/people';
-import { useBadgeScanner } from '../hooks/use-badge-scanner';
+import { useCodeScanner } from '../../../hooks/use-code-scanner';
 import { Field, inputClass } from './field';
 
 const button = 'min-h-11 rounded-lg px-4 font-semibold';
@@ -319,7 +319,7 @@ function AssignBadge({ person, onDone }: { person: Person; onDone: (m: string) =
       setError(e instanceof ApiRequestError ? e.message : 'The hub cannot be reached');
     }
   };
-  useBadgeScanner((code) => void give(code), waiting);
+  useCodeScanner((code) => void give(code), { enabled: waiting });
   return (
     <div className="flex flex-col gap-2">
       <h3 className="text-lg font-bold">Badge</h3>

@@ -1,7 +1,7 @@
 import type { Lot, Material } from '@tareline/protocol';
 import { useId, useState } from 'react';
 import { useLots } from '../api/get-lots';
-import { useLabelScanner } from '../hooks/use-label-scanner';
+import { useCodeScanner } from '../../../hooks/use-code-scanner';
 import { partName } from '../utils/describe';
 import { primaryButton } from './buttons';
 import { HubError } from './hub-error';
@@ -30,13 +30,19 @@ export function LotsStep({
   const parts = material.weightRatio.map((_, i) => i);
   const [lastScan, setLastScan] = useState<string>();
 
-  useLabelScanner((code) => {
-    // A code on the shelf list goes to its own part; any other to the first part still open.
-    const known = lots.data?.find((l) => same(l.code, code));
-    const part = known?.part ?? parts.find((p) => !codes[p]?.trim()) ?? 0;
-    onChange({ ...codes, [part]: known?.code ?? code });
-    setLastScan(`Scanned ${known?.code ?? code} for ${partName(part, material.partLabels[part])}`);
-  });
+  useCodeScanner(
+    (code) => {
+      // A code on the shelf list goes to its own part; any other to the first part still open.
+      const known = lots.data?.find((l) => same(l.code, code));
+      const part = known?.part ?? parts.find((p) => !codes[p]?.trim()) ?? 0;
+      onChange({ ...codes, [part]: known?.code ?? code });
+      setLastScan(
+        `Scanned ${known?.code ?? code} for ${partName(part, material.partLabels[part])}`,
+      );
+      // Lot codes can be shorter than badge codes.
+    },
+    { minLength: 3 },
+  );
 
   return (
     <div className="flex flex-col gap-6">

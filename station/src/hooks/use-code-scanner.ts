@@ -1,8 +1,10 @@
 import { useEffect, useRef } from 'react';
 
-/** A reader types a whole code within a few ms per key; a person is far slower. */
+/**
+ * A reader types a whole code within a few ms per key; a person is far slower. Readers send keys
+ * well under 80 ms apart (common practice, no published source).
+ */
 const MAX_KEY_GAP_MS = 80;
-const MIN_CODE_LENGTH = 4;
 
 function isTextField(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
@@ -15,11 +17,14 @@ function isTextField(target: EventTarget | null): boolean {
 }
 
 /**
- * Catches a badge reader that types like a keyboard: quick keys then Enter, anywhere on the page
- * while no text box has the focus (typing into a box is left to the box). Slow keys start over,
- * so stray presses never sign anyone in.
+ * Catches a keyboard-wedge reader (badges, lot labels): quick keys then Enter, anywhere on the
+ * page while no text box has the focus (typing into a box is left to the box). Slow keys start
+ * over, so stray presses never count as a scan; codes shorter than `minLength` are ignored.
  */
-export function useBadgeScanner(onScan: (code: string) => void, enabled = true): void {
+export function useCodeScanner(
+  onScan: (code: string) => void,
+  { enabled = true, minLength = 4 }: { enabled?: boolean; minLength?: number } = {},
+): void {
   const onScanRef = useRef(onScan);
   useEffect(() => {
     onScanRef.current = onScan;
@@ -37,7 +42,7 @@ export function useBadgeScanner(onScan: (code: string) => void, enabled = true):
       if (event.key === 'Enter') {
         const code = buffer.trim();
         buffer = '';
-        if (code.length >= MIN_CODE_LENGTH) {
+        if (code.length >= minLength) {
           event.preventDefault();
           onScanRef.current(code);
         }
@@ -47,5 +52,5 @@ export function useBadgeScanner(onScan: (code: string) => void, enabled = true):
     };
     window.addEventListener('keydown', onKeyDown);
     return () => window.removeEventListener('keydown', onKeyDown);
-  }, [enabled]);
+  }, [enabled, minLength]);
 }
