@@ -1,9 +1,3 @@
-/** Decimal places that show a scale interval d: 0.01 g → 2, 0.1 g → 1, 1 g → 0. */
-export function decimalsOf(readabilityG: number): number {
-  if (!(readabilityG > 0)) return 2;
-  return Math.max(0, Math.ceil(-Math.log10(readabilityG) - 1e-9));
-}
-
 /** A signed percentage with a true minus sign, e.g. "+0.71 %". */
 export function signedPct(pct: number, decimals = 2): string {
   const text = pct.toFixed(decimals);

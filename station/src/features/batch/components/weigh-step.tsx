@@ -2,7 +2,7 @@ import type { Batch, PourEvent, Rescue } from '@tareline/protocol';
 import { useState, type ReactNode } from 'react';
 import { Gauge } from '../../scale/components/gauge';
 import type { LiveBench } from '../../scale/hooks/use-live-bench';
-import { formatGrams } from '../../scale/utils/format-weight';
+import { formatGrams } from '../../../lib/grams';
 import { useBatchIntent, type BatchIntent } from '../api/batch-intents';
 import { partLetter, partName } from '../utils/describe';
 import { AbandonDialog } from './abandon-dialog';

@@ -1,6 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
 import { useBatch } from '../api/get-batch';
-import { decimalsOf, shownTime, signedPct } from '../utils';
+import { decimalsFor } from '../../../lib/grams';
+import { shownTime, signedPct } from '../utils';
 import { BatchOutcome } from './batch-outcome';
 import { PourTraceChart } from './pour-trace-chart';
 
@@ -42,7 +43,7 @@ export function BatchDetail() {
     );
   }
   const b = batch.data;
-  const decimals = decimalsOf(b.readabilityG);
+  const decimals = decimalsFor(b.readabilityG);
   // By time; steps of the same millisecond (part B done and saved) in the order they happen.
   // The hub's JSON column does not keep key order, so the order comes from STEP_SHOWN.
   const rank = (step: string) => {

@@ -2,7 +2,8 @@ import type { ReadingEvent, ScaleState, ScaleStatusEvent } from '@tareline/proto
 import { useRef, type ReactNode } from 'react';
 import { useEasedScaleX } from '../hooks/use-eased-scale';
 import type { GaugeBand, GaugeVerdict } from '../types';
-import { decimalsFor, formatGrams, trackEndG, trackFraction } from '../utils/format-weight';
+import { decimalsFor, formatGrams } from '../../../lib/grams';
+import { trackEndG, trackFraction } from '../utils/format-weight';
 import { VerdictBadge } from './verdict-badge';
 
 export interface GaugeProps {

@@ -1,0 +1,12 @@
+/** Decimal places that show a scale interval d: 0.01 g → 2, 0.1 g → 1, 1 g → 0, 0.005 g → 3. */
+export function decimalsFor(readabilityG: number): number {
+  if (!(readabilityG > 0)) return 2;
+  return Math.max(0, Math.ceil(-Math.log10(readabilityG) - 1e-9));
+}
+
+/** Grams as the gauge prints them: fixed decimals, a true minus sign, no `-0.00`. */
+export function formatGrams(grams: number, decimals: number): string {
+  const text = grams.toFixed(decimals);
+  const isZero = Number(text) === 0;
+  return isZero ? (0).toFixed(decimals) : text.replace('-', '\u2212');
+}
