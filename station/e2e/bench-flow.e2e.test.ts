@@ -39,6 +39,18 @@ describe('the bench flow in Chromium', () => {
     expect(res.status).toBe(200);
   }
 
+  /** Buttons and links on screen smaller than a gloved finger: 56 px each way (issue 6). */
+  const smallTargets = (page: Page) =>
+    page.evaluate(() =>
+      [...document.querySelectorAll<HTMLElement>('button, a[href], summary, [role="button"]')]
+        .filter((el) => el.offsetParent !== null)
+        .filter((el) => {
+          const box = el.getBoundingClientRect();
+          return box.height < 56 || box.width < 56;
+        })
+        .map((el) => el.textContent?.trim() || el.getAttribute('aria-label') || el.tagName),
+    );
+
   /** The net weight on the gauge, as drawn. */
   const netWeight = async (page: Page) =>
     Number((await page.getByTestId('net-weight').textContent())?.replace('\u2212', '-'));
@@ -57,15 +69,18 @@ describe('the bench flow in Chromium', () => {
     await card.waitFor(LONG);
     expect((await card.boundingBox())?.height).toBeGreaterThanOrEqual(56);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-material.png') });
+    expect(await smallTargets(page)).toEqual([]);
     await card.click();
     await page.getByRole('textbox', { name: 'Total mass to mix' }).fill('114');
     await page.getByRole('button', { name: 'Next: lots' }).click();
     await page.getByRole('button', { name: 'SC14H-2608' }).click(LONG);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-lots.png') });
+    expect(await smallTargets(page)).toEqual([]);
     await page.getByRole('button', { name: 'Next: prepare' }).click();
     // SC-14 is filled and settles: its stirring timer may be skipped only on purpose.
     await page.getByText(/SDS binder, tab 3/).waitFor();
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-prep.png') });
+    expect(await smallTargets(page)).toEqual([]);
     await page.getByRole('button', { name: 'Skip stirring…' }).click();
     await page.getByRole('button', { name: 'Yes, skip: it is stirred' }).click();
     await page.getByRole('button', { name: 'Start weighing' }).click();
@@ -101,6 +116,7 @@ describe('the bench flow in Chromium', () => {
     );
     await page.getByText(/^stable · gross/).waitFor(LONG);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-part-a.png') });
+    expect(await smallTargets(page)).toEqual([]);
     await partADone.click();
 
     // Part B: the hub tares the cup with part A in it and judges the pour against the band.
@@ -128,6 +144,7 @@ describe('the bench flow in Chromium', () => {
     await savedHeading.waitFor(LONG);
     const batchId = Number((await savedHeading.textContent())!.match(/\d+/)![0]);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-saved.png'), fullPage: true });
+    expect(await smallTargets(page)).toEqual([]);
 
     // The dark bench theme: the page turns dark, and the saved screen still reads.
     const darkTheme = page.getByRole('button', { name: 'Dark theme' });

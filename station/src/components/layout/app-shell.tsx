@@ -30,7 +30,7 @@ export function AppShell() {
                 key={area.to}
                 to={area.to}
                 className={({ isActive }) =>
-                  `rounded-md px-4 py-2 text-lg font-semibold ${isActive ? 'bg-brass text-ink' : 'hover:bg-white/10'}`
+                  `inline-flex min-h-14 items-center rounded-md px-4 text-lg font-semibold ${isActive ? 'bg-brass text-ink' : 'hover:bg-white/10'}`
                 }
               >
                 {area.label}
@@ -50,7 +50,7 @@ export function AppShell() {
                 <button
                   type="button"
                   onClick={() => void signOut()}
-                  className="rounded-md px-3 py-1 font-semibold hover:bg-white/10"
+                  className="min-h-14 rounded-md px-3 font-semibold hover:bg-white/10"
                 >
                   Sign out
                 </button>
