@@ -116,6 +116,10 @@ describe('the bench flow in Chromium', () => {
     );
     await page.getByText(/^stable · gross/).waitFor(LONG);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-part-a.png') });
+    // Readable from two metres: net weight digits at least 120 px high at 1280 × 800 (issue 6).
+    expect((await page.getByTestId('net-weight').boundingBox())!.height).toBeGreaterThanOrEqual(
+      120,
+    );
     expect(await smallTargets(page)).toEqual([]);
     await partADone.click();
 
