@@ -3,6 +3,7 @@ import {
   formatClock,
   formatCountdown,
   heavierThanRated,
+  mixedMassG,
   secondsLeft,
   potLifeEndsAt,
 } from './pot-life';
@@ -35,5 +36,13 @@ describe('pot life', () => {
     expect(heavierThanRated(400, 100)).toBe(true);
     expect(heavierThanRated(100, 100)).toBe(false);
     expect(heavierThanRated(400, null)).toBe(false);
+  });
+
+  it('takes the mass in the cup as weighed, top-ups included, or the plan before weighing', () => {
+    const parts = (...g: (number | null)[]) =>
+      g.map((actualG, i) => ({ label: `Part ${i}`, targetG: 0, actualG }));
+    // 103.57 g of part A after a rescue plus 14.5 g of part B: 118.07 g mixed.
+    expect(mixedMassG({ totalMassG: 114, parts: parts(103.57, 14.5) })).toBeCloseTo(118.07, 6);
+    expect(mixedMassG({ totalMassG: 114, parts: parts(null, null) })).toBe(114);
   });
 });

@@ -1,3 +1,5 @@
+import type { Batch } from '@tareline/protocol';
+
 /** When a batch mixed at `savedAt` reaches the end of its pot life. */
 export function potLifeEndsAt(savedAt: string, potLifeMin: number): Date {
   return new Date(Date.parse(savedAt) + potLifeMin * 60_000);
@@ -33,4 +35,14 @@ export function formatClock(time: Date): string {
  */
 export function heavierThanRated(totalMassG: number, potLifeMassG: number | null): boolean {
   return potLifeMassG !== null && totalMassG > potLifeMassG;
+}
+
+/**
+ * What is in the cup: the parts as weighed (rescue top-ups included), or the planned total
+ * before anything was weighed. The heat a batch builds follows the mass actually mixed.
+ */
+export function mixedMassG(batch: Pick<Batch, 'parts' | 'totalMassG'>): number {
+  const weighed = batch.parts.filter((p) => p.actualG !== null);
+  if (weighed.length === 0) return batch.totalMassG;
+  return weighed.reduce((sum, p) => sum + p.actualG!, 0);
 }

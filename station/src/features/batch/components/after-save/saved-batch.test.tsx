@@ -74,8 +74,26 @@ describe('SavedBatch', () => {
     expect(caution).toHaveTextContent('data sheet comes first');
     unmount();
 
+    // What was poured counts, not what was planned: 90 g planned, 114.1 g mixed.
+    const { unmount: unmount2 } = render(
+      <SavedBatch batch={savedBatch({ totalMassG: 90 })} material={material} />,
+    );
+    expect(
+      screen.getByRole('note', { name: 'Heavier than the pot life was rated for' }),
+    ).toHaveTextContent('This batch is 114.1 g');
+    unmount2();
+
     render(
-      <SavedBatch batch={savedBatch({ totalMassG: 100, potLifeMassG: 100 })} material={material} />,
+      <SavedBatch
+        batch={savedBatch({
+          totalMassG: 114,
+          parts: [
+            { label: 'Resin', targetG: 87.72, actualG: 87.7 },
+            { label: 'Hardener', targetG: 12.28, actualG: 12.3 },
+          ],
+        })}
+        material={material}
+      />,
     );
     expect(screen.queryByRole('note')).not.toBeInTheDocument();
   });

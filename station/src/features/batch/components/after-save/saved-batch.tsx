@@ -1,5 +1,5 @@
 import type { Batch, Material } from '@tareline/protocol';
-import { potLifeEndsAt } from '../../utils/pot-life';
+import { mixedMassG, potLifeEndsAt } from '../../utils/pot-life';
 import { CupLabel } from './cup-label';
 import { signedPct } from './format';
 import { MixingSteps } from './mixing-steps';
@@ -35,7 +35,7 @@ export function SavedBatch({ batch, material }: SavedBatchProps) {
           <PotLifeCountdown
             endsAt={endsAt}
             potLifeMin={potLifeMin}
-            totalMassG={batch.totalMassG}
+            totalMassG={mixedMassG(batch)}
             potLifeMassG={potLifeMassG}
           />
           <section aria-labelledby="label-title" className="space-y-4 rounded-xl bg-panel p-6">
