@@ -13,7 +13,7 @@ const HUB_ENV = {
 };
 const LONG = { timeout: 45_000 };
 
-describe('an over-pour rescued at the bench in Chromium', () => {
+describe('pours that do not go to plan, at the bench in Chromium', () => {
   let hub: HubProcess;
   let browser: Awaited<ReturnType<typeof launchBrowser>>;
 
@@ -117,5 +117,60 @@ describe('an over-pour rescued at the bench in Chromium', () => {
     expect(batch.parts[1]!.actualG!).toBeCloseTo(28, 1);
     expect(Math.abs(batch.ratioDeviationPct!)).toBeLessThan(1);
     expect(batch.steps).toHaveProperty('rescueTaken');
+  }, 240_000);
+
+  it('gives no verdict while the scale is unplugged mid-pour, then resumes and saves', async () => {
+    // Signed in already (same browser); the last batch is saved, so the bench starts afresh.
+    const page = await browser.context.newPage();
+    await page.goto(`${hub.url}/bench?bench=bench-1`);
+    await page.getByRole('button', { name: /Clear laminating epoxy LR-27/ }).click(LONG);
+    await page.getByRole('textbox', { name: 'Total mass to mix' }).fill('127');
+    await page.getByRole('button', { name: 'Next: lots' }).click();
+    await page.getByRole('button', { name: 'Next: prepare' }).click();
+    await page.getByRole('button', { name: 'Start weighing' }).click();
+    await page.getByRole('heading', { name: 'Weigh Part A (Resin): 100.00 g' }).waitFor(LONG);
+
+    await page.getByText('No balance here: drive the simulated scale').click();
+    // A fresh cup for the last one; the scale still holds the last batch's tare, so the net
+    // reads below zero until this batch's tare.
+    await page.getByRole('button', { name: 'Lift the cup' }).click();
+    await page.getByRole('button', { name: 'Place a 40 g cup' }).click();
+    await page.getByText('The simulator is busy…').waitFor({ state: 'detached', ...LONG });
+    await page.getByText(/^stable · gross 40\.0\d g/).waitFor(LONG);
+    await page.getByRole('button', { name: 'Tare' }).click();
+    await steadyAt(page, 0);
+    await pour(page, 100);
+    await steadyAt(page, 100);
+    await page.getByRole('button', { name: 'Part A done' }).click();
+    await page.getByRole('heading', { name: 'Weigh Part B (Hardener): 27.00 g' }).waitFor(LONG);
+    await steadyAt(page, 0);
+    await pour(page, 20);
+    await steadyAt(page, 20);
+
+    // The cable comes out: the batch waits as interrupted, no verdict, Resume held back.
+    await page.getByRole('button', { name: 'Unplug the cable' }).click();
+    await page.getByRole('heading', { name: /^Batch \d+ was interrupted$/ }).waitFor(LONG);
+    expect(await page.locator('[data-verdict]').count()).toBe(0);
+    const resume = page.getByRole('button', { name: 'Resume' });
+    expect(await resume.isDisabled()).toBe(true);
+    await page.screenshot({ path: join(artifactsDir, 'interrupted.png') });
+
+    await page.getByRole('button', { name: 'Plug it back' }).click();
+    await page.waitForFunction(
+      () =>
+        !(
+          [...document.querySelectorAll('button')].find((b) => b.textContent === 'Resume') as
+            HTMLButtonElement | undefined
+        )?.disabled,
+      undefined,
+      LONG,
+    );
+    await resume.click();
+    await page.getByRole('heading', { name: /^Weigh Part B \(Hardener\)/ }).waitFor(LONG);
+    // The tare held (same hub, same cup): the 20 g already in count, 7 g to go.
+    await steadyAt(page, 20);
+    await pour(page, 7);
+    await page.getByRole('heading', { name: /^Batch \d+ saved$/ }).waitFor(LONG);
+    await page.getByText(/GO/).first().waitFor();
   }, 240_000);
 });
