@@ -196,6 +196,18 @@ describe('batch state machine: abandon, interrupt, resume', () => {
     expect(confirmPour(back, steady(14.05), T0).verdict).toBe('GO');
   });
 
+  it('keeps every interruption and resume in the steps, not only the last', () => {
+    const T1 = '2027-01-05T09:05:00.000Z';
+    const once = resume(interrupt(atPartB(100), 'scale offline', T0), { lost: false }, T0);
+    const twice = resume(interrupt(once, 'scale offline again', T1), { lost: false }, T1);
+    expect(twice.steps).toMatchObject({
+      interrupted: T0,
+      resumed: T0,
+      'interrupted.2': T1,
+      'resumed.2': T1,
+    });
+  });
+
   it('credits the pour reached before a lost tare and shrinks the rest', () => {
     const rec = interrupt(atPartB(100), 'hub restarted', T0);
     const back = resume(rec, { lost: true, lastNetG: 10 }, T0);

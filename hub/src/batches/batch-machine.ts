@@ -115,6 +115,20 @@ const actualsOf = (rec: BatchRecord): number[] =>
   rec.parts.filter((p) => p.actualG !== null).map((p) => p.actualG!);
 
 /** Starts a batch: targets split from the total by the ratio, part A first. */
+/**
+ * Records a step at `now` without losing an earlier one of the same name: a second tare or a
+ * second interruption is kept as `taredB.2`, `interrupted.2`, … so the record shows each one.
+ */
+export function stamp(
+  steps: Record<string, string>,
+  name: string,
+  now: string,
+): Record<string, string> {
+  let key = name;
+  for (let n = 2; key in steps; n += 1) key = `${name}.${n}`;
+  return { ...steps, [key]: now };
+}
+
 export function startBatch(input: {
   weightRatio: number[];
   partLabels: string[];
@@ -158,7 +172,7 @@ export function markTared(rec: BatchRecord, now: string): BatchRecord {
   return {
     ...rec,
     active: { ...rec.active!, tared: true },
-    steps: { ...rec.steps, [`tared${letter}${rec.active!.kind === 'top-up' ? 'TopUp' : ''}`]: now },
+    steps: stamp(rec.steps, `tared${letter}${rec.active!.kind === 'top-up' ? 'TopUp' : ''}`, now),
   };
 }
 
@@ -182,7 +196,7 @@ function save(rec: BatchRecord, verdict: BatchVerdict, now: string): BatchRecord
     verdict,
     active: null,
     topUpQueue: [],
-    steps: { ...rec.steps, saved: now },
+    steps: stamp(rec.steps, 'saved', now),
   });
 }
 
@@ -281,7 +295,7 @@ export function confirmPour(
     i === active.part ? { ...p, actualG: (p.actualG ?? 0) + netG } : p,
   );
   const stepName = active.kind === 'top-up' ? `topUp${letter}` : `confirmed${letter}`;
-  return advance({ ...rec, parts, steps: { ...rec.steps, [stepName]: now } }, now);
+  return advance({ ...rec, parts, steps: stamp(rec.steps, stepName, now) }, now);
 }
 
 /** What the rescue would be for the current over-pour, without taking it. */
@@ -331,7 +345,7 @@ export function takeRescue(
   );
   const queue = rescue.addG.map((g, i) => (g > 0 ? i : -1)).filter((i) => i >= 0);
   return advance(
-    { ...rec, parts, rescue, topUpQueue: queue, steps: { ...rec.steps, rescueTaken: now } },
+    { ...rec, parts, rescue, topUpQueue: queue, steps: stamp(rec.steps, 'rescueTaken', now) },
     now,
   );
 }
@@ -374,7 +388,7 @@ export function abandon(
     active: null,
     topUpQueue: [],
     abandonReason: reason,
-    steps: { ...rec.steps, abandoned: now },
+    steps: stamp(rec.steps, 'abandoned', now),
   });
 }
 
@@ -386,7 +400,7 @@ export function interrupt(rec: BatchRecord, reason: string, now: string): BatchR
     resumeState: rec.state,
     state: 'interrupted',
     interruptedReason: reason,
-    steps: { ...rec.steps, interrupted: now },
+    steps: stamp(rec.steps, 'interrupted', now),
   };
 }
 
@@ -426,6 +440,6 @@ export function resume(
     state: rec.resumeState,
     resumeState: null,
     interruptedReason: null,
-    steps: { ...rec.steps, resumed: now },
+    steps: stamp(rec.steps, 'resumed', now),
   };
 }

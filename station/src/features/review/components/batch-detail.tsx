@@ -46,8 +46,10 @@ export function BatchDetail() {
   const decimals = decimalsFor(b.readabilityG);
   // By time; steps of the same millisecond (part B done and saved) in the order they happen.
   // The hub's JSON column does not keep key order, so the order comes from STEP_SHOWN.
+  // A repeated step is kept by the hub as `name.2`, `name.3`…
+  const baseOf = (step: string) => step.replace(/\.\d+$/, '');
   const rank = (step: string) => {
-    const i = Object.keys(STEP_SHOWN).indexOf(step);
+    const i = Object.keys(STEP_SHOWN).indexOf(baseOf(step));
     return i === -1 ? Object.keys(STEP_SHOWN).length : i;
   };
   const steps = Object.entries(b.steps).sort(
@@ -159,7 +161,8 @@ export function BatchDetail() {
               <time dateTime={at} className="mr-3 text-muted">
                 {new Date(at).toLocaleTimeString()}
               </time>
-              {STEP_SHOWN[step] ?? step}
+              {STEP_SHOWN[baseOf(step)] ?? step}
+              {/\.\d+$/.test(step) && ' again'}
             </li>
           ))}
         </ol>

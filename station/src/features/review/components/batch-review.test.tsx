@@ -31,7 +31,9 @@ function batch(overrides: Partial<Batch> = {}): Batch {
       saved: '2026-12-02T08:02:00.000Z',
       created: '2026-12-02T08:00:00.000Z',
       confirmedB: '2026-12-02T08:02:00.000Z',
+      'interrupted.2': '2026-12-02T08:01:40.000Z',
       confirmedA: '2026-12-02T08:01:00.000Z',
+      interrupted: '2026-12-02T08:01:20.000Z',
     },
     ...overrides,
   });
@@ -109,7 +111,14 @@ describe('batch review', () => {
     const steps = within(screen.getByRole('region', { name: 'Steps' })).getAllByRole('listitem');
     const stepName = (li: HTMLElement) =>
       li.textContent!.slice(li.querySelector('time')!.textContent!.length);
-    expect(steps.map(stepName)).toEqual(['Started', 'Part A done', 'Part B done', 'Saved']);
+    expect(steps.map(stepName)).toEqual([
+      'Started',
+      'Part A done',
+      'Interrupted',
+      'Interrupted again',
+      'Part B done',
+      'Saved',
+    ]);
   });
 
   it('says so when the batch does not exist', async () => {
