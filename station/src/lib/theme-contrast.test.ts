@@ -43,7 +43,8 @@ const TEXT_ON_BACKGROUND = [
   ['muted', 'panel'],
   ['over', 'paper'], // error messages
   ['over', 'panel'],
-  ['paper', 'steel'], // the header
+  ['barink', 'bar'], // the header
+  ['paper', 'steel'], // strong buttons
   ['paper', 'go'], // verdict blocks
   ['paper', 'under'],
   ['paper', 'over'],
@@ -68,6 +69,8 @@ describe('bench theme colours', () => {
       'under',
       'over',
       'muted',
+      'bar',
+      'barink',
     ];
     expect(Object.keys(tokens.light).sort()).toEqual([...names].sort());
     expect(Object.keys(tokens.dark).sort()).toEqual([...names].sort());

@@ -20,7 +20,7 @@ export function AppShell() {
     <div className="flex min-h-screen flex-col">
       <header
         data-print="hide"
-        className="flex items-center justify-between gap-6 bg-steel px-6 py-3 text-paper"
+        className="flex items-center justify-between gap-6 bg-bar px-6 py-3 text-barink"
       >
         <div className="flex items-center gap-8">
           <span className="text-2xl font-bold tracking-wide">Tareline</span>
