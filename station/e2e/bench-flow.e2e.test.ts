@@ -1,26 +1,17 @@
-import type { Batch, SimulatorStep } from '@tareline/protocol';
+import type { SimulatorStep } from '@tareline/protocol';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { artifactsDir, launchBrowser } from './support/browser';
+import { batchFromHub, LONG, quickBenchEnv, scanBadge } from './support/bench';
 import { startBuiltHub, type HubProcess } from './support/hub-process';
-
-// A quick simulated balance (0.01 g, small noise, simulated time 4× the wall clock) and a short
-// dwell before the hub saves by itself, as the hub's own batch tests use.
-const HUB_ENV = {
-  TARELINE_SCALE: 'sim://?format=headered&rateHz=20&noiseG=0.002&speed=4&seed=11',
-  TARELINE_SAVE_DWELL_MS: '800',
-};
-
-// The machine is shared and slow under load: generous waits.
-const LONG = { timeout: 45_000 };
 
 describe('the bench flow in Chromium', () => {
   let hub: HubProcess;
   let browser: Awaited<ReturnType<typeof launchBrowser>>;
 
   beforeAll(async () => {
-    hub = await startBuiltHub(HUB_ENV);
+    hub = await startBuiltHub(quickBenchEnv(11));
     browser = await launchBrowser();
   });
 
@@ -57,12 +48,8 @@ describe('the bench flow in Chromium', () => {
 
   it('weighs SC-14 at 100 g and 14.1 g to GO, saves it by itself and prints the cup label', async () => {
     const page = await browser.context.newPage();
-    await page.goto(`${hub.url}/bench?bench=bench-1`);
-    await page.getByRole('heading', { name: 'Scan your badge' }).waitFor(LONG);
-    // Demo shop (README): Joss Whitcombe, badge HR-1003, no PIN at bench-1. A badge reader types
-    // fast and presses Enter with no text box focused.
-    await page.keyboard.type('HR-1003');
-    await page.keyboard.press('Enter');
+    // Demo shop (README): Joss Whitcombe, badge HR-1003, no PIN at bench-1.
+    await scanBadge(page, hub.url, 'HR-1003');
     await page.getByText('Signed in: Joss Whitcombe').waitFor(LONG);
 
     const card = page.getByRole('button', { name: /Grey surface-coat epoxy SC-14/ });
@@ -180,15 +167,7 @@ describe('the bench flow in Chromium', () => {
     await page.emulateMedia({ media: 'screen' });
 
     // The batch through the API, as a lead or a later audit would read it.
-    const token = await page.evaluate(
-      () =>
-        (JSON.parse(localStorage.getItem('tareline.session') ?? '{}') as { token?: string }).token,
-    );
-    const res = await fetch(`${hub.url}/api/batches/${batchId}`, {
-      headers: { Authorization: `Bearer ${token}` },
-    });
-    expect(res.status).toBe(200);
-    const batch = (await res.json()) as Batch;
+    const batch = await batchFromHub(page, hub.url, batchId);
     expect(batch).toMatchObject({
       state: 'saved',
       verdict: 'GO',

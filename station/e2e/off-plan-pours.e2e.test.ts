@@ -1,24 +1,18 @@
-import type { Batch } from '@tareline/protocol';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { artifactsDir, launchBrowser } from './support/browser';
+import { batchFromHub, LONG, quickBenchEnv, scanBadge, steadyAt } from './support/bench';
 import { startBuiltHub, type HubProcess } from './support/hub-process';
 
-// The same quick simulated balance as the bench-flow test, poured here only through the bench's
-// own "drive the simulated scale" panel, as someone trying the demo without a balance would.
-const HUB_ENV = {
-  TARELINE_SCALE: 'sim://?format=headered&rateHz=20&noiseG=0.002&speed=4&seed=23',
-  TARELINE_SAVE_DWELL_MS: '800',
-};
-const LONG = { timeout: 45_000 };
-
+// Poured here only through the bench's own "drive the simulated scale" panel, as someone trying
+// the demo without a balance would.
 describe('pours that do not go to plan, at the bench in Chromium', () => {
   let hub: HubProcess;
   let browser: Awaited<ReturnType<typeof launchBrowser>>;
 
   beforeAll(async () => {
-    hub = await startBuiltHub(HUB_ENV);
+    hub = await startBuiltHub(quickBenchEnv(23));
     browser = await launchBrowser();
   });
 
@@ -27,21 +21,27 @@ describe('pours that do not go to plan, at the bench in Chromium', () => {
     await hub?.stop();
   });
 
-  /** Waits until the gauge's net weight is within 0.05 g of `grams` and the scale is steady. */
-  async function steadyAt(page: Page, grams: number) {
-    await page.waitForFunction(
-      (g) =>
-        Math.abs(
-          Number(
-            document
-              .querySelector('[data-testid="net-weight"]')
-              ?.textContent?.replace('\u2212', '-'),
-          ) - g,
-        ) < 0.05,
-      grams,
-      LONG,
-    );
-    await page.getByText(/^stable · gross/).waitFor(LONG);
+  /** LR-27 (demo shop): 100:27 by weight, nothing to stir. 127 g → 100 g and 27 g. */
+  async function startLr27(page: Page) {
+    await page.getByRole('button', { name: /Clear laminating epoxy LR-27/ }).click(LONG);
+    await page.getByRole('textbox', { name: 'Total mass to mix' }).fill('127');
+    await page.getByRole('button', { name: 'Next: lots' }).click();
+    await page.getByRole('button', { name: 'Next: prepare' }).click();
+    await page.getByRole('button', { name: 'Start weighing' }).click();
+    await page.getByRole('heading', { name: 'Weigh Part A (Resin): 100.00 g' }).waitFor(LONG);
+    await page.getByText('Scale: online').waitFor(LONG);
+    await page.getByText('No balance here: drive the simulated scale').click();
+  }
+
+  /** Tare on the cup, 100 g of part A, confirmed; part B's tare done by the hub. */
+  async function pourPartA(page: Page) {
+    await page.getByRole('button', { name: 'Tare' }).click();
+    await steadyAt(page, 0);
+    await pour(page, 100);
+    await steadyAt(page, 100);
+    await page.getByRole('button', { name: 'Part A done' }).click();
+    await page.getByRole('heading', { name: 'Weigh Part B (Hardener): 27.00 g' }).waitFor(LONG);
+    await steadyAt(page, 0);
   }
 
   async function pour(page: Page, grams: number) {
@@ -52,33 +52,14 @@ describe('pours that do not go to plan, at the bench in Chromium', () => {
 
   it('offers the part A to add after too much part B, takes it, and saves GO', async () => {
     const page = await browser.context.newPage();
-    await page.goto(`${hub.url}/bench?bench=bench-1`);
-    await page.getByRole('heading', { name: 'Scan your badge' }).waitFor(LONG);
-    await page.keyboard.type('HR-1003');
-    await page.keyboard.press('Enter');
+    await scanBadge(page, hub.url, 'HR-1003');
     await page.getByText('Signed in: Joss Whitcombe').waitFor(LONG);
-
-    // LR-27 (demo shop): 100:27 by weight, nothing to stir. 127 g → 100 g and 27 g.
-    await page.getByRole('button', { name: /Clear laminating epoxy LR-27/ }).click(LONG);
-    await page.getByRole('textbox', { name: 'Total mass to mix' }).fill('127');
-    await page.getByRole('button', { name: 'Next: lots' }).click();
-    await page.getByRole('button', { name: 'Next: prepare' }).click();
-    await page.getByRole('button', { name: 'Start weighing' }).click();
-    await page.getByRole('heading', { name: 'Weigh Part A (Resin): 100.00 g' }).waitFor(LONG);
-    await page.getByText('Scale: online').waitFor(LONG);
-
-    await page.getByText('No balance here: drive the simulated scale').click();
+    await startLr27(page);
     await page.getByRole('button', { name: 'Place a 40 g cup' }).click();
     await steadyAt(page, 40);
-    await page.getByRole('button', { name: 'Tare' }).click();
-    await steadyAt(page, 0);
-    await pour(page, 100);
-    await steadyAt(page, 100);
-    await page.getByRole('button', { name: 'Part A done' }).click();
+    await pourPartA(page);
 
     // Part B: one gram too many.
-    await page.getByRole('heading', { name: 'Weigh Part B (Hardener): 27.00 g' }).waitFor(LONG);
-    await steadyAt(page, 0);
     await pour(page, 28);
     await steadyAt(page, 28);
     const over = page.locator('[data-verdict="OVER"]').first();
@@ -103,15 +84,7 @@ describe('pours that do not go to plan, at the bench in Chromium', () => {
     const savedHeading = page.getByRole('heading', { name: /^Batch \d+ saved$/ });
     await savedHeading.waitFor(LONG);
     const batchId = Number((await savedHeading.textContent())!.match(/\d+/)![0]);
-    const token = await page.evaluate(
-      () =>
-        (JSON.parse(localStorage.getItem('tareline.session') ?? '{}') as { token?: string }).token,
-    );
-    const batch = (await (
-      await fetch(`${hub.url}/api/batches/${batchId}`, {
-        headers: { Authorization: `Bearer ${token}` },
-      })
-    ).json()) as Batch;
+    const batch = await batchFromHub(page, hub.url, batchId);
     expect(batch).toMatchObject({ state: 'saved', verdict: 'GO' });
     expect(batch.parts[0]!.actualG!).toBeCloseTo(100 + addG, 1);
     expect(batch.parts[1]!.actualG!).toBeCloseTo(28, 1);
@@ -123,27 +96,14 @@ describe('pours that do not go to plan, at the bench in Chromium', () => {
     // Signed in already (same browser); the last batch is saved, so the bench starts afresh.
     const page = await browser.context.newPage();
     await page.goto(`${hub.url}/bench?bench=bench-1`);
-    await page.getByRole('button', { name: /Clear laminating epoxy LR-27/ }).click(LONG);
-    await page.getByRole('textbox', { name: 'Total mass to mix' }).fill('127');
-    await page.getByRole('button', { name: 'Next: lots' }).click();
-    await page.getByRole('button', { name: 'Next: prepare' }).click();
-    await page.getByRole('button', { name: 'Start weighing' }).click();
-    await page.getByRole('heading', { name: 'Weigh Part A (Resin): 100.00 g' }).waitFor(LONG);
-
-    await page.getByText('No balance here: drive the simulated scale').click();
+    await startLr27(page);
     // A fresh cup for the last one; the scale still holds the last batch's tare, so the net
     // reads below zero until this batch's tare.
     await page.getByRole('button', { name: 'Lift the cup' }).click();
     await page.getByRole('button', { name: 'Place a 40 g cup' }).click();
     await page.getByText('The simulator is busy…').waitFor({ state: 'detached', ...LONG });
     await page.getByText(/^stable · gross 40\.0\d g/).waitFor(LONG);
-    await page.getByRole('button', { name: 'Tare' }).click();
-    await steadyAt(page, 0);
-    await pour(page, 100);
-    await steadyAt(page, 100);
-    await page.getByRole('button', { name: 'Part A done' }).click();
-    await page.getByRole('heading', { name: 'Weigh Part B (Hardener): 27.00 g' }).waitFor(LONG);
-    await steadyAt(page, 0);
+    await pourPartA(page);
     await pour(page, 20);
     await steadyAt(page, 20);
 
