@@ -15,6 +15,19 @@ const QUICK_POURS = [
   { grams: 0.1, rateGPerS: 0.2 },
 ];
 
+/** One press each: what a person does to a balance, in the order they would. */
+const ACTIONS: { label: string; steps: SimulatorStep[] }[] = [
+  { label: 'Place a 40 g cup', steps: [{ do: 'place-cup', massG: 40 }, { do: 'settle' }] },
+  { label: 'Lift the cup', steps: [{ do: 'lift-cup' }] },
+  { label: 'Put the cup back', steps: [{ do: 'return-cup' }, { do: 'settle' }] },
+  ...QUICK_POURS.map(({ grams, rateGPerS }) => ({
+    label: `Pour ${grams} g`,
+    steps: [{ do: 'pour', grams, rateGPerS }, { do: 'settle' }] satisfies SimulatorStep[],
+  })),
+  { label: 'Unplug the cable', steps: [{ do: 'unplug' }] },
+  { label: 'Plug it back', steps: [{ do: 'replug' }] },
+];
+
 const pourFormSchema = z.object({
   grams: z.coerce
     .number({ error: 'Enter the grams to pour' })
@@ -48,57 +61,17 @@ export function SimulatorPanel({ benchId }: { benchId: string }) {
         No balance is connected to this bench: these buttons act on the simulator the hub reads.
       </p>
       <div className="flex flex-wrap gap-2">
-        <button
-          type="button"
-          className={button}
-          disabled={run.isPending}
-          onClick={() => send([{ do: 'place-cup', massG: 40 }, { do: 'settle' }])}
-        >
-          Place a 40 g cup
-        </button>
-        <button
-          type="button"
-          className={button}
-          disabled={run.isPending}
-          onClick={() => send([{ do: 'lift-cup' }])}
-        >
-          Lift the cup
-        </button>
-        <button
-          type="button"
-          className={button}
-          disabled={run.isPending}
-          onClick={() => send([{ do: 'return-cup' }, { do: 'settle' }])}
-        >
-          Put the cup back
-        </button>
-        {QUICK_POURS.map(({ grams, rateGPerS }) => (
+        {ACTIONS.map(({ label, steps }) => (
           <button
-            key={grams}
+            key={label}
             type="button"
             className={button}
             disabled={run.isPending}
-            onClick={() => pour(grams, rateGPerS)}
+            onClick={() => send(steps)}
           >
-            Pour {grams} g
+            {label}
           </button>
         ))}
-        <button
-          type="button"
-          className={button}
-          disabled={run.isPending}
-          onClick={() => send([{ do: 'unplug' }])}
-        >
-          Unplug the cable
-        </button>
-        <button
-          type="button"
-          className={button}
-          disabled={run.isPending}
-          onClick={() => send([{ do: 'replug' }])}
-        >
-          Plug it back
-        </button>
       </div>
       <form
         noValidate
