@@ -38,6 +38,8 @@ describe('volume estimator', { timeout: 20_000 }, () => {
   it('shows every step, metric and imperial, as the sizes are typed', async () => {
     render(<VolumeEstimator />);
     expect(screen.getByText('Enter the length')).toBeInTheDocument();
+    // No model was chosen: its volume is not on the list of what is missing.
+    expect(screen.queryByText('Enter the model volume')).not.toBeInTheDocument();
     await fillEpoxyBox();
     await typeInto('Overage', '10');
     await typeInto('Cup loss', '12');

@@ -121,8 +121,14 @@ export function VolumeEstimator({ material, scale, onPlan, onUse }: VolumeEstima
   const density: DensityMode = basis === 'volume' ? 'parts' : densityMode;
 
   const request = useMemo(
-    () => ({ ...values, ...(material ? { material } : {}), ...(scale ? { scale } : {}) }),
-    [values, material, scale],
+    () => ({
+      ...values,
+      // Without a model the default unit left in the form must not ask for a model volume.
+      ...(withModel ? {} : { displacement: undefined }),
+      ...(material ? { material } : {}),
+      ...(scale ? { scale } : {}),
+    }),
+    [values, withModel, material, scale],
   );
   const preview = usePlanPreview(request);
   useEffect(() => {
