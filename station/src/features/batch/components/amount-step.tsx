@@ -108,6 +108,7 @@ export function AmountStep({
       {estimating && (
         <VolumeEstimator
           material={planMaterial}
+          tolerancePct={material.tolerancePct}
           {...(planScale ? { scale: planScale } : {})}
           onUse={(totalMassG) => {
             // Up to whole tenths of a gram: a short batch spoils the pour, a tenth more costs

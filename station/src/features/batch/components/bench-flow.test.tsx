@@ -91,6 +91,9 @@ describe('choosing what to mix', { timeout: 20_000 }, () => {
     openBench();
     await user.click(await screen.findByRole('button', { name: /SC-14/ }));
     await user.click(screen.getByRole('button', { name: 'Work it out from the mold' }));
+    // The material's tolerance is the batch's: not asked for again.
+    expect(screen.queryByRole('textbox', { name: 'Tolerance' })).not.toBeInTheDocument();
+    expect(screen.getByText(/within ± 1 %, the material's tolerance/)).toBeInTheDocument();
     await user.type(screen.getByRole('textbox', { name: 'Length' }), '10');
     await user.type(screen.getByRole('textbox', { name: 'Width' }), '10');
     await user.type(screen.getByRole('textbox', { name: 'Height' }), '1');

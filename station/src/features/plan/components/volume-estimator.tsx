@@ -74,22 +74,35 @@ export interface VolumeEstimatorProps {
   onPlan?: (plan: PlanResponse | undefined) => void;
   /** Offers a button that hands the plan's total mass back (the bench flow's amount step). */
   onUse?: (totalMassG: number) => void;
+  /** The material's own tolerance (the bench flow): used as it is, not asked for. */
+  tolerancePct?: number;
 }
 
 /**
  * The volume estimator: a cavity, a model and an allowance in; the mass to mix and each part's
  * share out, every step shown. Computes as you type with the protocol's pure functions.
  */
-export function VolumeEstimator({ material, scale, onPlan, onUse }: VolumeEstimatorProps) {
+export function VolumeEstimator({
+  material,
+  scale,
+  onPlan,
+  onUse,
+  tolerancePct,
+}: VolumeEstimatorProps) {
   const resolver = useMemo<Resolver<PlanRequestInput>>(() => {
     const base = zodResolver(planRequestSchema) as unknown as Resolver<PlanRequestInput>;
     return (values, context, options) =>
       base(
-        { ...values, ...(material ? { material } : {}), ...(scale ? { scale } : {}) },
+        {
+          ...values,
+          ...(material ? { material } : {}),
+          ...(scale ? { scale } : {}),
+          ...(tolerancePct !== undefined ? { tolerancePct } : {}),
+        },
         context,
         options,
       );
-  }, [material, scale]);
+  }, [material, scale, tolerancePct]);
   const {
     register,
     control,
@@ -127,8 +140,9 @@ export function VolumeEstimator({ material, scale, onPlan, onUse }: VolumeEstima
       ...(withModel ? {} : { displacement: undefined }),
       ...(material ? { material } : {}),
       ...(scale ? { scale } : {}),
+      ...(tolerancePct !== undefined ? { tolerancePct } : {}),
     }),
-    [values, withModel, material, scale],
+    [values, withModel, material, scale, tolerancePct],
   );
   const preview = usePlanPreview(request);
   useEffect(() => {
@@ -398,13 +412,19 @@ export function VolumeEstimator({ material, scale, onPlan, onUse }: VolumeEstima
         )}
 
         <FieldGroup title="Weighing">
-          <NumberField
-            label="Tolerance"
-            unit="%"
-            hint="Each part is weighed within ± this much."
-            registration={reg('tolerancePct', num)}
-            error={err('tolerancePct')}
-          />
+          {tolerancePct === undefined ? (
+            <NumberField
+              label="Tolerance"
+              unit="%"
+              hint="Each part is weighed within ± this much."
+              registration={reg('tolerancePct', num)}
+              error={err('tolerancePct')}
+            />
+          ) : (
+            <p className="text-lg">
+              Each part is weighed within ± {tolerancePct} %, the material&apos;s tolerance.
+            </p>
+          )}
           {scale ? null : (
             <>
               <CheckField
