@@ -3,7 +3,7 @@ import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { AppModule } from './app.module.js';
 import type { AppConfig } from './config/app-config.js';
-import { HttpExceptionFilter } from './common/http-exception.filter.js';
+import { ApiExceptionFilter } from './common/api-exception.filter.js';
 import { PinoLogger } from './logger/pino-logger.js';
 
 /** Builds the hub (not yet listening): shared by `main.ts` and the end-to-end tests. */
@@ -14,7 +14,7 @@ export async function createApp(config: AppConfig): Promise<INestApplication> {
     abortOnError: false,
   });
   app.setGlobalPrefix('api');
-  app.useGlobalFilters(new HttpExceptionFilter());
+  app.useGlobalFilters(new ApiExceptionFilter());
   app.disable('x-powered-by');
   return app;
 }

@@ -8,7 +8,6 @@ import {
   type PipeTransform,
   Post,
   Query,
-  UseFilters,
 } from '@nestjs/common';
 import {
   abandonBatchSchema,
@@ -22,7 +21,6 @@ import { Roles } from '../auth/access.decorator.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
-import { BatchRefusalFilter } from './batch-refusal.filter.js';
 import { BatchesService } from './batches.service.js';
 
 const listQuerySchema = z.object({
@@ -47,7 +45,6 @@ const batchId = new BatchNumberPipe();
 /** Thin: every rule lives in BatchesService and the batch state machine. */
 @Controller('batches')
 @Roles('operator', 'lead', 'admin')
-@UseFilters(BatchRefusalFilter)
 export class BatchesController {
   constructor(@Inject(BatchesService) private readonly batches: BatchesService) {}
 

@@ -1,6 +1,7 @@
-import { BadRequestException, Injectable, PipeTransform } from '@nestjs/common';
-import { fieldErrors, type ApiError } from '@tareline/protocol';
+import { Injectable, PipeTransform } from '@nestjs/common';
+import { fieldErrors } from '@tareline/protocol';
 import type { z } from 'zod';
+import { InvalidInput } from './domain-errors.js';
 
 /**
  * Validates a body, query or parameter with a protocol schema and answers 400 with every bad
@@ -16,8 +17,7 @@ export class ZodValidationPipe<S extends z.ZodType> implements PipeTransform<unk
   transform(value: unknown): z.infer<S> {
     const result = this.schema.safeParse(value);
     if (!result.success) {
-      const body: ApiError = { message: this.message, errors: fieldErrors(result.error) };
-      throw new BadRequestException(body);
+      throw new InvalidInput(this.message, fieldErrors(result.error));
     }
     return result.data;
   }
