@@ -5,6 +5,7 @@ import { AuthModule } from './auth/auth.module.js';
 import { ConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { DemoModule } from './demo/demo.module.js';
+import { EventsModule } from './events/events.module.js';
 import { HealthModule } from './health/health.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
 import { PlanModule } from './plan/plan.module.js';
@@ -22,6 +23,7 @@ export class AppModule {
       imports: [
         ConfigModule.forRoot(config),
         DatabaseModule,
+        EventsModule,
         AuthModule,
         HealthModule,
         ScalesModule,

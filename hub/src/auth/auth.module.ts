@@ -6,7 +6,7 @@ import { ThrottlerModule } from '@nestjs/throttler';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { AccessGuard } from './access.guard.js';
 import { AuthController } from './auth.controller.js';
-import { CLOCK, systemClock } from './clock.js';
+import { CLOCK, systemClock, type Clock } from './clock.js';
 import { CredentialHasher } from './credential-hasher.js';
 import { JwtSocketAuthenticator } from './jwt-socket-authenticator.js';
 import { JwtStrategy } from './jwt.strategy.js';
@@ -47,7 +47,7 @@ import { TokenService } from './token.service.js';
         badgeKey: await loadOrCreateSecret(config.data.dir, 'badge-key', config.auth.badgeKey),
       }),
     },
-    { provide: CLOCK, useValue: { now: () => systemClock.now() } },
+    { provide: CLOCK, useFactory: (): Clock => ({ ...systemClock }) },
     CredentialHasher,
     PeopleRepository,
     SignInRepository,

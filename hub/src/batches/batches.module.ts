@@ -1,14 +1,21 @@
 import { Module } from '@nestjs/common';
-import { LiveModule } from '../live/live.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
+import { BatchRunner } from './batch-runner.js';
 import { BatchesController } from './batches.controller.js';
+import { BatchesRepository } from './batches.repository.js';
 import { BatchesService } from './batches.service.js';
+import { BenchSessions } from './bench-sessions.js';
 
+/**
+ * Batches in four rooms: the repository (all batch SQL), the bench sessions (each bench's open
+ * batch, written before it is announced), the runner (readings in, verdicts and auto-save out)
+ * and the service (what people ask). They publish `batch.changed` and `pour.judged`.
+ */
 @Module({
-  imports: [ScalesModule, LiveModule, MaterialsModule],
+  imports: [ScalesModule, MaterialsModule],
   controllers: [BatchesController],
-  providers: [BatchesService],
+  providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService],
   exports: [BatchesService],
 })
 export class BatchesModule {}

@@ -1,5 +1,6 @@
 import { Inject, Injectable, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
-import type { ReadingEvent } from '@tareline/protocol';
+import type { BatchEvent, PourEvent, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
+import { OnHubEvent } from '../events/hub-events.js';
 import { ScalesService } from '../scales/scales.service.js';
 import { LiveGateway } from './live.gateway.js';
 import { TrailingThrottle } from './reading-throttle.js';
@@ -7,7 +8,10 @@ import { TrailingThrottle } from './reading-throttle.js';
 /** 25 readings a second per bench at most: more than a screen can show, and it never drops the newest. */
 export const MAX_READINGS_PER_S = 25;
 
-/** Forwards every bench's scale readings and states to its room on the live socket. */
+/**
+ * Forwards to each bench's room on the live socket: its scale's readings (throttled) and the hub
+ * events about it (scale state, batch changes, judged pours).
+ */
 @Injectable()
 export class LiveService implements OnModuleInit, OnApplicationShutdown {
   private readonly throttles = new Map<string, TrailingThrottle<ReadingEvent>>();
@@ -30,9 +34,21 @@ export class LiveService implements OnModuleInit, OnApplicationShutdown {
     );
     this.throttles.set(benchId, throttle);
     this.scales.onReading(benchId, (reading) => throttle.push(reading));
-    this.scales.onStatus(benchId, (status) =>
-      this.gateway.emitToBench(benchId, 'scaleStatus', status),
-    );
+  }
+
+  @OnHubEvent('scale.status')
+  onScaleStatus(status: ScaleStatusEvent): void {
+    this.gateway.emitToBench(status.benchId, 'scaleStatus', status);
+  }
+
+  @OnHubEvent('batch.changed')
+  onBatchChanged(event: BatchEvent): void {
+    this.gateway.emitToBench(event.benchId, 'batch', event);
+  }
+
+  @OnHubEvent('pour.judged')
+  onPourJudged(event: PourEvent): void {
+    this.gateway.emitToBench(event.benchId, 'pour', event);
   }
 
   onApplicationShutdown(): void {

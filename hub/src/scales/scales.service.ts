@@ -1,4 +1,4 @@
-import { Injectable, Logger, OnApplicationShutdown } from '@nestjs/common';
+import { Inject, Injectable, Logger, OnApplicationShutdown } from '@nestjs/common';
 import type {
   ReadingEvent,
   ScaleLinkSettings,
@@ -6,6 +6,7 @@ import type {
   ScaleTransportKind,
 } from '@tareline/protocol';
 import type { SimulatedScale } from '@tareline/simulator';
+import { HubEvents } from '../events/hub-events.js';
 import { ScaleLink, type ScaleLinkTimings } from './scale-link.js';
 import { SerialTransport } from './transports/serial.transport.js';
 import { SimulatedTransport } from './transports/simulated.transport.js';
@@ -46,6 +47,8 @@ export class ScalesService implements OnApplicationShutdown {
   private timings: Partial<ScaleLinkTimings> = {};
   private readonly attachListeners = new Set<(benchId: string) => void>();
 
+  constructor(@Inject(HubEvents) private readonly events: HubEvents) {}
+
   /** For tests: how transports are made and how fast links give up, before any attach. */
   configure(options: { transportFactory?: TransportFactory; timings?: Partial<ScaleLinkTimings> }) {
     if (options.transportFactory) this.transportFactory = options.transportFactory;
@@ -62,6 +65,7 @@ export class ScalesService implements OnApplicationShutdown {
       this.timings,
     );
     this.links.set(benchId, scaleLink);
+    scaleLink.onStatus((status) => this.events.emit('scale.status', status));
     for (const listener of this.attachListeners) listener(benchId);
     scaleLink.start();
     this.logger.log(`${benchId}: reading ${scaleLink.transport.description}`);

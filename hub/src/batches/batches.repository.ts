@@ -1,0 +1,189 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
+import { and, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import { Database } from '../database/database.js';
+import { batches } from '../database/schema/index.js';
+import type { BatchRecord } from './batch-machine.js';
+import { encodeTrace, type TracePoint } from './pour-trace.js';
+
+export type BatchRow = typeof batches.$inferSelect;
+export type NewBatchRow = typeof batches.$inferInsert;
+
+/** What a batch row keeps in its `detail` column besides the record's own fields. */
+export type BatchDetail = Pick<
+  BatchRecord,
+  'parts' | 'active' | 'topUpQueue' | 'rescue' | 'steps' | 'lots'
+> & {
+  potLifeMin: number | null;
+  potLifeMassG: number | null;
+  handledBy?: NonNullable<Batch['handledBy']>;
+  /** The hub restarted mid-pour: the balance's tare may be gone, so resume asks again. */
+  tareLost?: boolean;
+};
+
+export const detailOf = (row: BatchRow): BatchDetail => row.detail as BatchDetail;
+
+/** The batch record a row holds (the state machine's view). */
+export function recordOf(row: BatchRow): BatchRecord {
+  const d = detailOf(row);
+  return {
+    state: row.state,
+    resumeState: (row.resumeState as BatchState | null) ?? null,
+    verdict: row.verdict ?? null,
+    weightRatio: row.weightRatio,
+    tolerancePct: row.tolerancePct,
+    readabilityG: row.readabilityG,
+    totalMassG: row.totalMassG,
+    parts: d.parts,
+    active: d.active,
+    topUpQueue: d.topUpQueue,
+    rescue: d.rescue,
+    ratioDeviationPct: row.ratioDeviationPct ?? null,
+    abandonReason: row.abandonReason ?? null,
+    interruptedReason: row.interruptedReason ?? null,
+    steps: d.steps,
+    lots: d.lots,
+  };
+}
+
+/** A record's working data for the `detail` column, keeping what only the row knows. */
+export function detailFor(rec: BatchRecord, keep: BatchDetail): BatchDetail {
+  return {
+    parts: rec.parts,
+    active: rec.active,
+    topUpQueue: rec.topUpQueue,
+    rescue: rec.rescue,
+    steps: rec.steps,
+    lots: rec.lots,
+    potLifeMin: keep.potLifeMin,
+    potLifeMassG: keep.potLifeMassG,
+    ...(keep.handledBy ? { handledBy: keep.handledBy } : {}),
+    ...(keep.tareLost ? { tareLost: true } : {}),
+  };
+}
+
+/** The wire shape of a batch: the row's identity and the record's state, the trace if asked. */
+export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): Batch {
+  const d = detailOf(row);
+  return {
+    id: row.id,
+    state: rec.state,
+    verdict: rec.verdict,
+    benchId: row.benchId,
+    materialId: row.materialId,
+    materialName: row.materialName,
+    operator: { id: row.operatorId, name: row.operatorName },
+    ...(d.handledBy?.length ? { handledBy: d.handledBy } : {}),
+    totalMassG: rec.totalMassG,
+    weightRatio: rec.weightRatio,
+    parts: rec.parts,
+    active: rec.active,
+    rescue: rec.rescue,
+    ratioDeviationPct: rec.ratioDeviationPct,
+    tolerancePct: rec.tolerancePct,
+    readabilityG: rec.readabilityG,
+    lots: rec.lots,
+    potLifeMin: d.potLifeMin,
+    potLifeMassG: d.potLifeMassG,
+    abandonReason: rec.abandonReason,
+    interruptedReason: rec.interruptedReason,
+    steps: rec.steps,
+    createdAt: row.createdAt.toISOString(),
+    savedAt: rec.state === 'saved' ? (rec.steps.saved ?? null) : null,
+    ...(trace ? { trace } : {}),
+  };
+}
+
+export interface BatchListFilter {
+  benchId?: string;
+  state?: BatchState;
+  limit: number;
+}
+
+/** The batch store seen by the rest of the hub. A test gives the rooms a fake of it. */
+export interface BatchStore {
+  insert(values: NewBatchRow): Promise<BatchRow>;
+  /** Writes a record's new state (and the trace so far) and answers the row as stored. */
+  writeRecord(
+    id: number,
+    rec: BatchRecord,
+    detail: BatchDetail,
+    trace: readonly TracePoint[],
+  ): Promise<BatchRow>;
+  writeTrace(id: number, trace: readonly TracePoint[]): Promise<void>;
+  findById(id: number): Promise<BatchRow | undefined>;
+  /** Batches being weighed or interrupted: the ones a bench still has open. */
+  findOpen(): Promise<BatchRow[]>;
+  list(filter: BatchListFilter): Promise<BatchRow[]>;
+}
+
+/** The only place that talks SQL about batches. */
+@Injectable()
+export class BatchesRepository implements BatchStore {
+  constructor(@Inject(Database) private readonly database: Database) {}
+
+  private get db() {
+    return this.database.db;
+  }
+
+  async insert(values: NewBatchRow): Promise<BatchRow> {
+    const [row] = await this.db.insert(batches).values(values).returning();
+    return row!;
+  }
+
+  async writeRecord(
+    id: number,
+    rec: BatchRecord,
+    detail: BatchDetail,
+    trace: readonly TracePoint[],
+  ): Promise<BatchRow> {
+    const [row] = await this.db
+      .update(batches)
+      .set({
+        state: rec.state,
+        resumeState: rec.resumeState,
+        verdict: rec.verdict,
+        ratioDeviationPct: rec.ratioDeviationPct,
+        abandonReason: rec.abandonReason,
+        interruptedReason: rec.interruptedReason,
+        detail,
+        trace: encodeTrace(trace),
+        updatedAt: new Date(),
+        savedAt: rec.state === 'saved' ? new Date(rec.steps.saved ?? Date.now()) : null,
+      })
+      .where(eq(batches.id, id))
+      .returning();
+    return row!;
+  }
+
+  async writeTrace(id: number, trace: readonly TracePoint[]): Promise<void> {
+    await this.db
+      .update(batches)
+      .set({ trace: encodeTrace(trace), updatedAt: new Date() })
+      .where(eq(batches.id, id));
+  }
+
+  async findById(id: number): Promise<BatchRow | undefined> {
+    const [row] = await this.db.select().from(batches).where(eq(batches.id, id));
+    return row;
+  }
+
+  findOpen(): Promise<BatchRow[]> {
+    return this.db
+      .select()
+      .from(batches)
+      .where(inArray(batches.state, [...WEIGHING_STATES, 'interrupted']));
+  }
+
+  list(filter: BatchListFilter): Promise<BatchRow[]> {
+    const where: SQL[] = [];
+    if (filter.benchId) where.push(eq(batches.benchId, filter.benchId));
+    if (filter.state) where.push(eq(batches.state, filter.state));
+    return this.db
+      .select()
+      .from(batches)
+      .where(where.length ? and(...where) : undefined)
+      .orderBy(desc(batches.id))
+      .limit(filter.limit);
+  }
+}

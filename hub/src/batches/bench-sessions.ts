@@ -1,0 +1,295 @@
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import type { Batch, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CLOCK, type Clock } from '../auth/clock.js';
+import { ScaleCommandFailed, StoreUnavailable } from '../common/domain-errors.js';
+import { HubEvents } from '../events/hub-events.js';
+import { ScaleCommandError } from '../scales/scale-link.js';
+import { ScalesService } from '../scales/scales.service.js';
+import {
+  BatchRefusal,
+  interrupt,
+  isWeighing,
+  markTared,
+  type BatchRecord,
+  type NetReading,
+} from './batch-machine.js';
+import {
+  BatchesRepository,
+  detailFor,
+  detailOf,
+  recordOf,
+  toBatch,
+  type BatchRow,
+  type BatchStore,
+} from './batches.repository.js';
+import { decodeTrace, type TracePoint } from './pour-trace.js';
+
+/** What the batch rooms ask of a bench's scale; `ScalesService` in the hub, a fake in tests. */
+export type BenchScales = Pick<
+  ScalesService,
+  | 'has'
+  | 'benchIds'
+  | 'status'
+  | 'latest'
+  | 'tare'
+  | 'capacityG'
+  | 'readabilityG'
+  | 'onReading'
+  | 'onAttach'
+>;
+
+/** A bench's batch in progress (weighing or interrupted), held in memory beside its row. */
+export interface BenchSession {
+  id: number;
+  benchId: string;
+  row: BatchRow;
+  rec: BatchRecord;
+  startedMs: number;
+  trace: TracePoint[];
+  traceDirty: boolean;
+  /** When the current reading first went GO (ms), for the dwell before saving. */
+  goSince: number | null;
+  /** Why the last automatic save failed to reach the database; undefined once one succeeds. */
+  saveProblem?: string;
+  lastPourEmitMs: number;
+  lastVerdict: string | null;
+  /** Serialises every change to this batch: auto-save and operator intents never race. */
+  queue: Promise<unknown>;
+}
+
+/**
+ * The open batch of every bench. Every change to one goes through its queue, is written to the
+ * database first and announced (`batch.changed`) only once it is stored; a pour that moves on to
+ * a cup holding earlier parts is tared for the operator.
+ */
+@Injectable()
+export class BenchSessions {
+  private readonly logger = new Logger('Batches');
+  private readonly sessions = new Map<string, BenchSession>();
+
+  constructor(
+    @Inject(BatchesRepository) private readonly store: BatchStore,
+    @Inject(ScalesService) private readonly scales: BenchScales,
+    @Inject(HubEvents) private readonly events: Pick<HubEvents, 'emit'>,
+    @Inject(CLOCK) private readonly clock: Clock,
+  ) {}
+
+  nowIso(): string {
+    return new Date(this.clock.now()).toISOString();
+  }
+
+  /** Takes back the open batches after a start; one being weighed is interrupted, not lost. */
+  async restore(): Promise<void> {
+    for (const row of await this.store.findOpen()) {
+      const session = sessionFromRow(row);
+      this.sessions.set(row.benchId, session);
+      if (isWeighing(session.rec.state)) {
+        const rec = interrupt(session.rec, 'The hub restarted during the pour', this.nowIso());
+        session.row = await this.store.writeRecord(
+          session.id,
+          rec,
+          { ...detailFor(rec, detailOf(session.row)), tareLost: true },
+          session.trace,
+        );
+        session.rec = rec;
+        this.logger.warn(`Batch ${row.id} on ${row.benchId} interrupted by a hub restart`);
+      }
+    }
+  }
+
+  of(benchId: string): BenchSession | undefined {
+    return this.sessions.get(benchId);
+  }
+
+  byBatchId(id: number): BenchSession | undefined {
+    return [...this.sessions.values()].find((s) => s.id === id);
+  }
+
+  all(): IterableIterator<BenchSession> {
+    return this.sessions.values();
+  }
+
+  /** A batch just inserted becomes its bench's open batch, and the bench hears of it. */
+  open(row: BatchRow): BenchSession {
+    const session = sessionFromRow(row);
+    this.sessions.set(row.benchId, session);
+    this.announce(session);
+    return session;
+  }
+
+  enqueue<T>(session: BenchSession, task: () => Promise<T>): Promise<T> {
+    const run = session.queue.then(task, task);
+    session.queue = run.catch(() => undefined);
+    return run;
+  }
+
+  /** Runs one person's change on an open batch, in order, stored before it is announced. */
+  change(
+    session: BenchSession,
+    user: AuthUser,
+    change: (session: BenchSession) => Promise<BatchRecord>,
+  ): Promise<Batch> {
+    return this.enqueue(session, async () => {
+      const before = session.rec;
+      const next = await change(session);
+      this.noteHandler(session, user);
+      await this.commit(session, next);
+      await this.tareIfNeeded(session, before);
+      return toBatch(session.row, session.rec);
+    });
+  }
+
+  /** Stores a new record, then (and only then) updates memory and tells the bench. */
+  async commit(session: BenchSession, rec: BatchRecord): Promise<void> {
+    const keep = detailOf(session.row);
+    // A restart's lost tare matters until the batch is resumed.
+    const detail = detailFor(rec, {
+      ...keep,
+      tareLost: rec.state === 'interrupted' && keep.tareLost,
+    });
+    try {
+      session.row = await this.store.writeRecord(session.id, rec, detail, session.trace);
+    } catch (err) {
+      this.logger.error(
+        `Batch ${session.id} not written: ${(err as Error).message.split('\n')[0]}`,
+      );
+      throw new StoreUnavailable(
+        'The batch could not be written to the database: nothing changed, try again',
+      );
+    }
+    session.traceDirty = false;
+    session.rec = rec;
+    session.goSince = null;
+    session.saveProblem = undefined;
+    if (!isWeighing(rec.state) && rec.state !== 'interrupted') {
+      this.sessions.delete(session.benchId);
+      this.logger.log(
+        `Batch ${session.id} ${rec.state}${rec.verdict ? ` ${rec.verdict}` : ''} (deviation ${rec.ratioDeviationPct?.toFixed(2) ?? '–'} %)`,
+      );
+    }
+    this.announce(session);
+  }
+
+  /** A new pour on a cup that holds earlier parts: tare it for the operator. */
+  async tareIfNeeded(session: BenchSession, before: BatchRecord): Promise<void> {
+    const active = session.rec.active;
+    const movedOn =
+      active && !active.tared && isWeighing(session.rec.state) && before.active !== active;
+    if (!movedOn || (active.part === 0 && active.kind === 'first')) return;
+    try {
+      await this.tareScale(session.benchId);
+      await this.commit(session, markTared(session.rec, this.nowIso()));
+    } catch (err) {
+      // The operator sees an untared pour and a Tare button; nothing is lost.
+      this.logger.warn(`Automatic tare on ${session.benchId} failed: ${(err as Error).message}`);
+    }
+  }
+
+  /** Asks the balance to tare; a balance that will not is the operator's to wait out. */
+  async tareScale(benchId: string): Promise<void> {
+    const status = this.scales.status(benchId);
+    if (status.state !== 'online') {
+      throw new BatchRefusal(`The scale is ${status.state}: it cannot tare now`, 'WRONG_STATE');
+    }
+    try {
+      await this.scales.tare(benchId);
+    } catch (err) {
+      if (!(err instanceof ScaleCommandError)) throw err;
+      throw new ScaleCommandFailed(
+        `The scale did not tare: ${err.message}. Keep the cup still and try again`,
+        [{ path: 'SCALE_COMMAND', message: err.message }],
+        this.scales.status(benchId).state === 'online' ? 'busy' : 'away',
+      );
+    }
+  }
+
+  /** The reading the rules judge now, or none while the scale is away or out of range. */
+  netReading(benchId: string): NetReading | undefined {
+    if (this.scales.status(benchId).state !== 'online') return undefined;
+    const latest = this.scales.latest(benchId);
+    if (!latest || latest.outOfRange) return undefined;
+    return { netG: latest.netG, stable: latest.stable };
+  }
+
+  hasBench(benchId: string): boolean {
+    return this.scales.has(benchId);
+  }
+
+  readabilityG(benchId: string): number {
+    return this.scales.readabilityG(benchId);
+  }
+
+  latest(benchId: string): ReadingEvent | undefined {
+    return this.scales.has(benchId) ? this.scales.latest(benchId) : undefined;
+  }
+
+  scaleStatus(benchId: string): ScaleStatusEvent {
+    return this.scales.status(benchId);
+  }
+
+  capacity(benchId: string): { capacityG: number; grossG: number } | undefined {
+    const capacityG = this.scales.capacityG(benchId);
+    const latest = this.scales.latest(benchId);
+    return capacityG && latest ? { capacityG, grossG: latest.grossG } : undefined;
+  }
+
+  /** Writes the traces that grew since the last write; a refused write is tried next time. */
+  async flushTraces(): Promise<void> {
+    for (const session of this.sessions.values()) {
+      if (!session.traceDirty) continue;
+      session.traceDirty = false;
+      try {
+        await this.store.writeTrace(session.id, session.trace);
+      } catch (err) {
+        session.traceDirty = true;
+        this.logger.warn(
+          `Trace of batch ${session.id} not written yet: ${(err as Error).message.split('\n')[0]}`,
+        );
+      }
+    }
+  }
+
+  announce(session: BenchSession): void {
+    this.events.emit('batch.changed', {
+      benchId: session.benchId,
+      batch: toBatch(session.row, session.rec),
+    });
+  }
+
+  /**
+   * Someone other than the operator who started the batch acts on it: they are named with the
+   * batch from then on, so a batch handed over at a shift change is not credited to one person.
+   */
+  private noteHandler(session: BenchSession, user: AuthUser): void {
+    const detail = detailOf(session.row);
+    const handledBy = detail.handledBy ?? [];
+    if (user.id === session.row.operatorId || handledBy.some((h) => h.id === user.id)) return;
+    session.row = {
+      ...session.row,
+      detail: {
+        ...detail,
+        handledBy: [
+          ...handledBy,
+          { id: user.id, name: user.name, role: user.role, at: this.nowIso() },
+        ],
+      },
+    };
+  }
+}
+
+function sessionFromRow(row: BatchRow): BenchSession {
+  return {
+    id: row.id,
+    benchId: row.benchId,
+    row,
+    rec: recordOf(row),
+    startedMs: row.createdAt.getTime(),
+    trace: decodeTrace(row.trace),
+    traceDirty: false,
+    goSince: null,
+    lastPourEmitMs: 0,
+    lastVerdict: null,
+    queue: Promise.resolve(),
+  };
+}
