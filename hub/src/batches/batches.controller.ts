@@ -1,5 +1,4 @@
 import {
-  BadRequestException,
   Body,
   Controller,
   Get,
@@ -20,6 +19,7 @@ import { z } from 'zod';
 import { Roles } from '../auth/access.decorator.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
+import { InvalidInput } from '../common/domain-errors.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { BatchesService } from './batches.service.js';
 
@@ -37,7 +37,7 @@ class BatchNumberPipe implements PipeTransform<unknown, number> {
     const parsed = batchNumberSchema.safeParse(value);
     if (parsed.success) return parsed.data;
     const message = parsed.error.issues[0]?.message ?? 'A batch number is a whole number';
-    throw new BadRequestException({ message, errors: [{ path: 'id', message }] });
+    throw new InvalidInput(message, [{ path: 'id', message }]);
   }
 }
 const batchId = new BatchNumberPipe();

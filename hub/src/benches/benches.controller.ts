@@ -1,15 +1,4 @@
-import {
-  Body,
-  ConflictException,
-  Controller,
-  Get,
-  HttpCode,
-  Inject,
-  NotFoundException,
-  Param,
-  Post,
-  UnprocessableEntityException,
-} from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Inject, Param, Post } from '@nestjs/common';
 import {
   benchIdSchema,
   simulatorScriptSchema,
@@ -18,12 +7,7 @@ import {
 } from '@tareline/protocol';
 import { Public, Roles } from '../auth/access.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
-import {
-  BenchesService,
-  BenchNotFoundError,
-  NotSimulatedError,
-  SimulatorScriptError,
-} from './benches.service.js';
+import { BenchesService } from './benches.service.js';
 
 @Controller('benches')
 export class BenchesController {
@@ -48,20 +32,7 @@ export class BenchesController {
     @Body(new ZodValidationPipe(simulatorScriptSchema, 'Not a simulator script'))
     steps: SimulatorStep[],
   ): Promise<{ benchId: string; steps: number }> {
-    try {
-      await this.benches.runSimulator(id, steps);
-    } catch (err) {
-      if (err instanceof BenchNotFoundError) {
-        throw new NotFoundException({ message: err.message, errors: [] });
-      }
-      if (err instanceof SimulatorScriptError) {
-        throw new UnprocessableEntityException({ message: err.message, errors: [] });
-      }
-      if (err instanceof NotSimulatedError) {
-        throw new ConflictException({ message: err.message, errors: [] });
-      }
-      throw err;
-    }
+    await this.benches.runSimulator(id, steps);
     return { benchId: id, steps: steps.length };
   }
 }

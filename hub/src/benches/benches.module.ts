@@ -1,12 +1,13 @@
 import { Module } from '@nestjs/common';
 import { ScalesModule } from '../scales/scales.module.js';
 import { BenchesController } from './benches.controller.js';
+import { BenchesRepository } from './benches.repository.js';
 import { BenchesService } from './benches.service.js';
 
 @Module({
   imports: [ScalesModule],
   controllers: [BenchesController],
-  providers: [BenchesService],
+  providers: [BenchesRepository, BenchesService],
   exports: [BenchesService],
 })
 export class BenchesModule {}

@@ -6,37 +6,13 @@ import {
   type ScaleLinkSettings,
   type SimulatorStep,
 } from '@tareline/protocol';
-import { asc, eq } from 'drizzle-orm';
+import { Conflict, NotApplicable, NotFound } from '../common/domain-errors.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { Database } from '../database/database.js';
-import { benches } from '../database/schema/index.js';
 import { ScalesService } from '../scales/scales.service.js';
+import { BenchesRepository, type NewBenchRow } from './benches.repository.js';
 
 /** The bench every hub has from its first start; its scale comes from `TARELINE_SCALE`. */
 export const DEFAULT_BENCH = { id: 'bench-1', name: 'Bench 1' } as const;
-
-export class BenchNotFoundError extends Error {
-  constructor(readonly benchId: string) {
-    super(`There is no bench "${benchId}"`);
-    this.name = 'BenchNotFoundError';
-  }
-}
-
-/** The simulator endpoint was called for a bench whose scale is real. */
-export class NotSimulatedError extends Error {
-  constructor(readonly benchId: string) {
-    super(`The scale of bench "${benchId}" is not simulated: there is no simulator to drive`);
-    this.name = 'NotSimulatedError';
-  }
-}
-
-/** A script step the simulator could not carry out (a wait that timed out, a stopped hub). */
-export class SimulatorScriptError extends Error {
-  constructor(reason: string) {
-    super(`The simulator script stopped: ${reason}`);
-    this.name = 'SimulatorScriptError';
-  }
-}
 
 /**
  * The benches and their scale links: makes sure the default bench exists, tells the scales
@@ -48,16 +24,13 @@ export class BenchesService implements OnApplicationBootstrap {
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
-    @Inject(Database) private readonly database: Database,
+    @Inject(BenchesRepository) private readonly repository: BenchesRepository,
     @Inject(ScalesService) private readonly scales: ScalesService,
   ) {}
 
   async onApplicationBootstrap(): Promise<void> {
-    await this.database.db
-      .insert(benches)
-      .values({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name })
-      .onConflictDoNothing();
-    const rows = await this.database.db.select().from(benches).where(eq(benches.active, true));
+    await this.repository.insertIfMissing({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name });
+    const rows = await this.repository.listActive();
     for (const row of rows) {
       if (!this.scales.has(row.id)) {
         await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
@@ -66,9 +39,8 @@ export class BenchesService implements OnApplicationBootstrap {
   }
 
   /** Adds a bench unless one with its id exists, and starts reading its scale. */
-  async add(bench: typeof benches.$inferInsert): Promise<void> {
-    await this.database.db.insert(benches).values(bench).onConflictDoNothing();
-    const [row] = await this.database.db.select().from(benches).where(eq(benches.id, bench.id));
+  async add(bench: NewBenchRow): Promise<void> {
+    const row = await this.repository.insertIfMissing(bench);
     if (row?.active && !this.scales.has(row.id)) {
       await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
     }
@@ -87,19 +59,11 @@ export class BenchesService implements OnApplicationBootstrap {
   }
 
   async exists(benchId: string): Promise<boolean> {
-    const rows = await this.database.db
-      .select({ id: benches.id })
-      .from(benches)
-      .where(eq(benches.id, benchId));
-    return rows.length > 0 && this.scales.has(benchId);
+    return (await this.repository.findById(benchId)) !== undefined && this.scales.has(benchId);
   }
 
   async list(): Promise<BenchSummary[]> {
-    const rows = await this.database.db
-      .select()
-      .from(benches)
-      .where(eq(benches.active, true))
-      .orderBy(asc(benches.id));
+    const rows = await this.repository.listActive();
     return rows
       .filter((row) => this.scales.has(row.id))
       .map((row) => {
@@ -121,13 +85,19 @@ export class BenchesService implements OnApplicationBootstrap {
 
   /** Runs scripted steps on a simulated bench's simulator; resolves when they are done. */
   async runSimulator(benchId: string, steps: SimulatorStep[]): Promise<void> {
-    if (!this.scales.has(benchId)) throw new BenchNotFoundError(benchId);
+    if (!this.scales.has(benchId)) throw new NotFound(`There is no bench "${benchId}"`);
     const simulator = this.scales.simulator(benchId);
-    if (!simulator) throw new NotSimulatedError(benchId);
+    if (!simulator) {
+      throw new Conflict(
+        `The scale of bench "${benchId}" is not simulated: there is no simulator to drive`,
+      );
+    }
     try {
       await simulator.runScript(steps);
     } catch (err) {
-      throw new SimulatorScriptError(err instanceof Error ? err.message : String(err));
+      throw new NotApplicable(
+        `The simulator script stopped: ${err instanceof Error ? err.message : String(err)}`,
+      );
     }
   }
 }

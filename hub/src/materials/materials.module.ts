@@ -1,10 +1,11 @@
 import { Module } from '@nestjs/common';
 import { MaterialsController } from './materials.controller.js';
+import { MaterialsRepository } from './materials.repository.js';
 import { MaterialsService } from './materials.service.js';
 
 @Module({
   controllers: [MaterialsController],
-  providers: [MaterialsService],
+  providers: [MaterialsRepository, MaterialsService],
   exports: [MaterialsService],
 })
 export class MaterialsModule {}

@@ -1,4 +1,4 @@
-import { ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { Inject, Injectable } from '@nestjs/common';
 import {
   lotInputSchema,
   lotWarnings,
@@ -7,13 +7,9 @@ import {
   type Lot,
   type Material,
 } from '@tareline/protocol';
-import { and, asc, eq } from 'drizzle-orm';
 import type { z } from 'zod';
-import { Database } from '../database/database.js';
-import { lots, materials } from '../database/schema/index.js';
-
-type MaterialRow = typeof materials.$inferSelect;
-type LotRow = typeof lots.$inferSelect;
+import { Conflict, NotFound } from '../common/domain-errors.js';
+import { MaterialsRepository, type LotRow, type MaterialRow } from './materials.repository.js';
 
 const today = () => new Date().toISOString().slice(0, 10);
 
@@ -55,87 +51,70 @@ function toLot(row: LotRow, material: Pick<Material, 'openShelfLifeDays'>): Lot 
 /** Material systems and their lots. */
 @Injectable()
 export class MaterialsService {
-  constructor(@Inject(Database) private readonly database: Database) {}
+  constructor(@Inject(MaterialsRepository) private readonly repository: MaterialsRepository) {}
 
   async list(): Promise<Material[]> {
-    const rows = await this.database.db.select().from(materials).orderBy(asc(materials.name));
+    const rows = await this.repository.list();
     return rows.map(toMaterial);
   }
 
   async get(id: string): Promise<Material> {
-    const [row] = await this.database.db.select().from(materials).where(eq(materials.id, id));
-    if (!row) throw new NotFoundException({ message: `No material ${id}`, errors: [] });
+    const row = await this.repository.findById(id);
+    if (!row) throw new NotFound(`No material ${id}`);
     return toMaterial(row);
   }
 
   async create(input: z.output<typeof materialInputSchema>): Promise<Material> {
-    const [row] = await this.database.db
-      .insert(materials)
-      .values({
-        name: input.name,
-        ratioBasis: input.ratio.basis,
-        ratioParts: input.ratio.parts,
-        specificGravity: input.specificGravity ?? null,
-        yieldIn3PerLb: input.yieldIn3PerLb ?? null,
-        partSpecificGravities: input.partSpecificGravities ?? null,
-        partLabels: input.partLabels ?? null,
-        tolerancePct: input.tolerancePct,
-        potLifeMin: input.potLifeMin ?? null,
-        potLifeMassG: input.potLifeMassG ?? null,
-        agitateMin: input.agitateMin,
-        cautions: input.cautions,
-        sdsRef: input.sdsRef ?? null,
-        openShelfLifeDays: input.openShelfLifeDays ?? null,
-      })
-      .returning();
-    return toMaterial(row!);
+    const row = await this.repository.insert({
+      name: input.name,
+      ratioBasis: input.ratio.basis,
+      ratioParts: input.ratio.parts,
+      specificGravity: input.specificGravity ?? null,
+      yieldIn3PerLb: input.yieldIn3PerLb ?? null,
+      partSpecificGravities: input.partSpecificGravities ?? null,
+      partLabels: input.partLabels ?? null,
+      tolerancePct: input.tolerancePct,
+      potLifeMin: input.potLifeMin ?? null,
+      potLifeMassG: input.potLifeMassG ?? null,
+      agitateMin: input.agitateMin,
+      cautions: input.cautions,
+      sdsRef: input.sdsRef ?? null,
+      openShelfLifeDays: input.openShelfLifeDays ?? null,
+    });
+    return toMaterial(row);
   }
 
   async listLots(materialId?: string): Promise<Lot[]> {
-    const rows = await this.database.db
-      .select({ lot: lots, material: materials })
-      .from(lots)
-      .innerJoin(materials, eq(lots.materialId, materials.id))
-      .where(materialId ? eq(lots.materialId, materialId) : undefined)
-      .orderBy(asc(lots.materialId), asc(lots.part), asc(lots.code));
+    const rows = await this.repository.listLots(materialId);
     return rows.map(({ lot, material }) => toLot(lot, toMaterial(material)));
   }
 
   async createLot(input: z.output<typeof lotInputSchema>): Promise<Lot> {
     const material = await this.get(input.materialId);
     if (input.part >= material.ratio.parts.length) {
-      throw new ConflictException({
-        message: `${material.name} has ${material.ratio.parts.length} parts`,
-        errors: [{ path: 'part', message: `Choose a part of ${material.name}` }],
-      });
+      throw new Conflict(`${material.name} has ${material.ratio.parts.length} parts`, [
+        { path: 'part', message: `Choose a part of ${material.name}` },
+      ]);
     }
     const existing = await this.findLot(input.materialId, input.part, input.code);
     if (existing) {
-      throw new ConflictException({
-        message: `Lot ${input.code} is already registered for this part`,
-        errors: [{ path: 'code', message: 'This lot is already registered' }],
-      });
+      throw new Conflict(`Lot ${input.code} is already registered for this part`, [
+        { path: 'code', message: 'This lot is already registered' },
+      ]);
     }
-    const [row] = await this.database.db
-      .insert(lots)
-      .values({
-        materialId: input.materialId,
-        part: input.part,
-        code: input.code,
-        expiresOn: input.expiresOn ?? null,
-        openedOn: input.openedOn ?? null,
-      })
-      .returning();
-    return toLot(row!, material);
+    const row = await this.repository.insertLot({
+      materialId: input.materialId,
+      part: input.part,
+      code: input.code,
+      expiresOn: input.expiresOn ?? null,
+      openedOn: input.openedOn ?? null,
+    });
+    return toLot(row, material);
   }
 
   /** The registered lot with this code for this part, if any. */
   async findLot(materialId: string, part: number, code: string): Promise<Lot | undefined> {
-    const [row] = await this.database.db
-      .select({ lot: lots, material: materials })
-      .from(lots)
-      .innerJoin(materials, eq(lots.materialId, materials.id))
-      .where(and(eq(lots.materialId, materialId), eq(lots.part, part), eq(lots.code, code)));
+    const row = await this.repository.findLot(materialId, part, code);
     return row ? toLot(row.lot, toMaterial(row.material)) : undefined;
   }
 }

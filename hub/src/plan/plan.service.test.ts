@@ -1,5 +1,6 @@
-import { BadRequestException } from '@nestjs/common';
 import { describe, expect, it } from 'vitest';
+import { statusOf } from '../common/api-exception.filter.js';
+import { InvalidInput } from '../common/domain-errors.js';
 import { PlanService } from './plan.service.js';
 
 describe('PlanService', () => {
@@ -13,20 +14,19 @@ describe('PlanService', () => {
         tolerancePct: 1,
         material: { ratio: { basis: 'weight', parts: [100, 14] }, specificGravity: 1.2 },
       });
-    expect(call).toThrow(BadRequestException);
+    expect(call).toThrow(InvalidInput);
     try {
       call();
     } catch (err) {
-      expect((err as BadRequestException).getResponse()).toEqual({
-        message: 'The plan request has mistakes',
-        errors: [
-          {
-            path: 'cavity.waterTempC',
-            message:
-              'The water temperature must be between 0 and 40 °C; the density table covers only that range',
-          },
-        ],
-      });
+      expect(statusOf(err as InvalidInput)).toBe(400);
+      expect((err as InvalidInput).message).toBe('The plan request has mistakes');
+      expect((err as InvalidInput).errors).toEqual([
+        {
+          path: 'cavity.waterTempC',
+          message:
+            'The water temperature must be between 0 and 40 °C; the density table covers only that range',
+        },
+      ]);
     }
   });
 });

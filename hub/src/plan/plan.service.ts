@@ -1,11 +1,11 @@
-import { BadRequestException, Injectable } from '@nestjs/common';
+import { Injectable } from '@nestjs/common';
 import {
   computePlan,
   MixInputError,
-  type ApiError,
   type PlanRequest,
   type PlanResponse,
 } from '@tareline/protocol';
+import { InvalidInput } from '../common/domain-errors.js';
 
 @Injectable()
 export class PlanService {
@@ -18,11 +18,9 @@ export class PlanService {
       return computePlan(request);
     } catch (err) {
       if (err instanceof MixInputError) {
-        const body: ApiError = {
-          message: 'The plan request has mistakes',
-          errors: [{ path: err.field, message: err.message }],
-        };
-        throw new BadRequestException(body);
+        throw new InvalidInput('The plan request has mistakes', [
+          { path: err.field, message: err.message },
+        ]);
       }
       throw err;
     }
