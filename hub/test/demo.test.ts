@@ -15,7 +15,7 @@ describe('demo shop seeding', () => {
   });
 
   it('seeds people and benches on the first start only', async () => {
-    const first = await startTestHub(data.dir);
+    const first = await startTestHub(data.dir, {}, { template: 'none' });
     const people = await first.app.get(PeopleRepository).list();
     expect(first.app.get(DemoService).stepNames()).toEqual([
       'people',

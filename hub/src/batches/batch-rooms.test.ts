@@ -94,7 +94,7 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     return batch.id;
   }
 
-  const lastBatch = () => events.of('batch.changed').at(-1)!.batch;
+  const lastBatch = () => events.of('batch.changed').at(-1)!.batch!;
   const pours = () => events.of('pour.judged');
 
   it('saves GO by itself once part B stays steady inside the band for the dwell', async () => {
@@ -113,7 +113,7 @@ describe('the batch rooms with a fake clock, store and scale', () => {
 
   it('is announced only after the store took it', async () => {
     const id = await throughPartA();
-    const announced = events.of('batch.changed').map((e) => e.batch.state);
+    const announced = events.of('batch.changed').map((e) => e.batch!.state);
     expect(announced).toEqual(['weighing-a', 'weighing-a', 'weighing-b', 'weighing-b']);
     expect(store.rows.get(id)!.state).toBe('weighing-b');
   });

@@ -1,8 +1,10 @@
 import 'reflect-metadata';
-import { mkdtemp, rm } from 'node:fs/promises';
+import { access, cp, mkdtemp, readdir, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { INestApplication } from '@nestjs/common';
+import lockfile from 'proper-lockfile';
+import { inject } from 'vitest';
 import { createApp } from '../../src/app.js';
 import { loadConfig, type AppConfig } from '../../src/config/app-config.js';
 
@@ -19,11 +21,24 @@ export async function tempDataDir(): Promise<{ dir: string; remove: () => Promis
   return { dir, remove: () => rm(dir, { recursive: true, force: true }) };
 }
 
-/** Boots the real hub on a loopback port with its database in `dataDir`. */
+async function isEmpty(dir: string): Promise<boolean> {
+  return (await readdir(dir).catch(() => [])).length === 0;
+}
+
+/**
+ * Boots the real hub on a loopback port with its database in `dataDir`. An empty folder starts
+ * as a copy of the run's template (with the demo shop, or without it for `TARELINE_DEMO=0`);
+ * `template: 'none'` makes the hub migrate and seed it itself, for tests of exactly that.
+ */
 export async function startTestHub(
   dataDir: string,
   env: Record<string, string> = {},
+  options: { template?: 'auto' | 'none' } = {},
 ): Promise<TestHub> {
+  if (options.template !== 'none' && (await isEmpty(dataDir))) {
+    const template = await templateFolder(env.TARELINE_DEMO === '0' ? 'migrated' : 'demo');
+    if (template) await cp(template, dataDir, { recursive: true });
+  }
   const config = loadConfig({
     PORT: '0',
     HOST: '127.0.0.1',
@@ -40,4 +55,42 @@ export async function startTestHub(
     url: `http://127.0.0.1:${address.port}`,
     close: () => app.close(),
   };
+}
+
+/**
+ * A data folder migrated (and seeded with the demo shop, for `demo`) once per run: opening and
+ * migrating a new PGlite folder takes seconds, copying one a few milliseconds. The first worker
+ * that needs it makes it, under a lock; the others wait and copy.
+ */
+async function templateFolder(kind: 'demo' | 'migrated'): Promise<string | undefined> {
+  let root: string;
+  try {
+    root = inject('dataTemplatesDir');
+  } catch {
+    return undefined; // a run without the global setup (the serial-port suite): start empty
+  }
+  if (!root) return undefined;
+  const dir = join(root, kind);
+  const ready = join(root, `${kind}.ready`);
+  const release = await lockfile.lock(root, {
+    lockfilePath: join(root, `${kind}.lock`),
+    realpath: false,
+    retries: { retries: 600, minTimeout: 50, maxTimeout: 200 },
+  });
+  try {
+    const made = await access(ready).then(
+      () => true,
+      () => false,
+    );
+    if (!made) {
+      const hub = await startTestHub(dir, kind === 'migrated' ? { TARELINE_DEMO: '0' } : {}, {
+        template: 'none',
+      });
+      await hub.close();
+      await writeFile(ready, '');
+    }
+  } finally {
+    await release();
+  }
+  return dir;
 }
