@@ -130,6 +130,16 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     // An interrupted batch judges nothing, and nothing saves.
     expect(pours().length).toBe(before);
     expect(lastBatch().state).toBe('interrupted');
+    const id = lastBatch().id;
+    await expect(service.next(id, TOMAS)).rejects.toThrow(/interrupted: resume it first/);
+    // Resuming needs the scale back.
+    await expect(service.resume(id, TOMAS)).rejects.toThrow(/scale is offline/);
+    scales.state = 'online';
+    runner.onScaleStatus({ benchId: 'bench-1', state: 'online', detail: 'back' });
+    const resumed = await service.resume(id, TOMAS);
+    expect(resumed.state).toBe('weighing-b');
+    await holdSteady(14.1, DWELL_MS + 100);
+    expect(lastBatch()).toMatchObject({ id, state: 'saved', verdict: 'GO' });
   });
 
   it('while stale: no verdict on the readings that still come, and no save', async () => {
@@ -159,7 +169,9 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     await holdSteady(14.1, DWELL_MS);
     expect(lastBatch().state).toBe('weighing-b');
     await holdSteady(14.1, 100);
-    expect(pours().some((p) => p.saveProblem?.includes('could not write'))).toBe(true);
+    const told = pours().findLast((p) => p.saveProblem !== undefined)!;
+    expect(told.saveProblem).toMatch(/could not write the batch.*keeps trying/);
+    expect(lastBatch().state).toBe('weighing-b');
     await holdSteady(14.1, DWELL_MS);
     expect(lastBatch()).toMatchObject({ id, state: 'saved', verdict: 'GO' });
   });
