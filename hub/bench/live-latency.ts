@@ -161,7 +161,7 @@ throttle and the live gateway.
 | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |
 ${rows.join('\n')}
 
-Targets (issue 4): hub p99 within 5 ms of the relay; 50 benches under a quarter of one core.
+Targets: hub p99 within 5 ms of the relay; 50 benches under a quarter of one core.
 The machine is shared (2 cores, other work running), so single runs vary; rerun to compare.
 <!-- bench:live end -->
 `;

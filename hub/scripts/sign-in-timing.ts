@@ -1,6 +1,6 @@
 /**
  * How long the hub takes to refuse an unknown badge and a known badge with a wrong PIN; the two
- * should be indistinguishable (issue 5). Starts the built hub (`npm run build` first) on a fresh
+ * should be indistinguishable. Starts the built hub (`npm run build` first) on a fresh
  * data folder with the demo shop, then times both refusals, interleaved.
  *
  *   npx tsx hub/scripts/sign-in-timing.ts [rounds]

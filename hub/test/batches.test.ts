@@ -154,7 +154,7 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
     await until('saved', () => bench.latestBatch()?.state === 'saved');
     const saved = bench.latestBatch()!;
     expect(saved.verdict).toBe('GO');
-    // (14.10 / 100) / 0.14 − 1 = +0.714 % (issue 6's worked example); noise ±0.01 g.
+    // (14.10 / 100) / 0.14 − 1 = +0.714 % (worked by hand from the definition of parts by weight); noise ±0.01 g.
     expect(saved.ratioDeviationPct!).toBeGreaterThan(0.55);
     expect(saved.ratioDeviationPct!).toBeLessThan(0.9);
     // The verdict went UNDER → SETTLING/GO before the save, and GO counted down.
@@ -200,7 +200,7 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
       return !!last && last.verdict === 'OVER' && last.stable;
     });
     const over = bench.pours.at(-1)!;
-    // Part A to restore 100:14 = B × 100 / 14 − A (issue 6's worked example: 14.5 g of B after
+    // Part A to restore 100:14 = B × 100 / 14 − A (worked by hand: 14.5 g of B after
     // 100 g of A → 14.5 × 100 / 14 − 100 = 3.571 g), from the readings the hub actually judged.
     const partA = bench.latestBatch()!.parts[0]!.actualG!;
     expect(over.rescue!.addG[0]).toBeCloseTo((over.netG * 100) / 14 - partA, 2);

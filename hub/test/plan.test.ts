@@ -57,7 +57,7 @@ describe('POST /api/plan on the real hub', () => {
     });
     expect(res.status).toBe(200);
     const plan = planResponseSchema.parse(await res.json());
-    // 10 × 8 × 3 in = 240 in³; − 60 in³ = 180 in³; + 10 % = 198 in³ (issue 3's definitions).
+    // 10 × 8 × 3 in = 240 in³; − 60 in³ = 180 in³; + 10 % = 198 in³ (arithmetic on the definitions).
     expect(plan.cavityVolumeIn3).toBeCloseTo(240, 9);
     expect(plan.netVolumeIn3).toBeCloseTo(180, 9);
     expect(plan.fillVolumeIn3).toBeCloseTo(198, 9);

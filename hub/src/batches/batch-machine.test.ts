@@ -71,7 +71,7 @@ describe('batch state machine: the normal path', () => {
     const rec = confirmPour(atPartB(100), steady(14.1), T0);
     expect(rec.state).toBe('saved');
     expect(rec.verdict).toBe('GO');
-    // (14.10 / 100) / (14 / 100) − 1 = +0.714 % (issue 6's worked example).
+    // (14.10 / 100) / (14 / 100) − 1 = +0.714 % (worked by hand from the definition of parts by weight).
     expect(rec.ratioDeviationPct).toBeCloseTo(0.7143, 3);
     expect(rec.parts.map((p) => p.actualG)).toEqual([100, 14.1]);
     expect(rec.steps.saved).toBe(T0);
@@ -81,7 +81,7 @@ describe('batch state machine: the normal path', () => {
     const untared = confirmPour(markTared(epoxy(), T0), steady(100), T0);
     expect(judge(untared, steady(14))).toBeNull();
     const rec = markTared(untared, T0);
-    // Band for 14 g at ±1 %: 13.86–14.14 g (common practice, no published source: issue 3's example).
+    // Band for 14 g at ±1 %: 13.86–14.14 g (common practice, no published source).
     expect(judge(rec, steady(13.85))).toBe('UNDER');
     expect(judge(rec, moving(14.0))).toBe('SETTLING');
     expect(judge(rec, steady(13.86))).toBe('GO');
@@ -146,7 +146,7 @@ describe('batch state machine: refusals', () => {
 describe('batch state machine: over-pour and rescue', () => {
   it('offers 3.57 g of part A for 14.5 g of part B on 100 g, and judges the top-up', () => {
     const rec = takeRescue(atPartB(100), steady(14.5), T0);
-    // 14.5 × 100 / 14 = 103.571 g of A needed → add 3.571 g (issue 6's worked example).
+    // 14.5 × 100 / 14 = 103.571 g of A needed → add 3.571 g (worked by hand from the definition of parts by weight).
     expect(rec.rescue!.addG[0]).toBeCloseTo(3.5714, 3);
     expect(rec.rescue!.addG[1]).toBe(0);
     expect(rec.state).toBe('weighing-a');

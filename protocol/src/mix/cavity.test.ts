@@ -36,7 +36,7 @@ describe('cavity volumes', () => {
     const byRadius = in3(cylinderVolumeCm3({ radius: 2 }, 1.5, 'in'));
     expect(byRadius).toBeCloseTo(18.85, 2);
     expect(in3(cylinderVolumeCm3({ diameter: 4 }, 1.5, 'in'))).toBeCloseTo(byRadius, 10);
-    // The request from issue 3: Ø 100 mm × 50 mm = π × 5² × 5 cm³ = 392.699 cm³.
+    // A worked request: Ø 100 mm × 50 mm = π × 5² × 5 cm³ = 392.699 cm³.
     expect(
       cavityVolumeCm3({ shape: 'cylinder', diameter: 100, height: 50, unit: 'mm' }),
     ).toBeCloseTo(392.699, 3);
@@ -78,8 +78,8 @@ describe('cavity volumes', () => {
 
 describe('net and fill volume', () => {
   it('subtracts the model, then adds the overage to the net volume', () => {
-    // The box of issue 3: 10 × 8 × 3 in = 240 in³; a 60 in³ model leaves 180 in³;
-    // 10 % overage on the net gives 198 in³ (arithmetic on the definitions in issue 3).
+    // A worked box: 10 × 8 × 3 in = 240 in³; a 60 in³ model leaves 180 in³;
+    // 10 % overage on the net gives 198 in³ (arithmetic on the definitions).
     const cavity = boxVolumeCm3(10, 8, 3, 'in');
     const net = netVolumeCm3(cavity, 60 * CM3_PER_IN3);
     expect(in3(net)).toBeCloseTo(180, 10);

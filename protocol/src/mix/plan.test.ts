@@ -30,7 +30,7 @@ describe('computePlan', () => {
       cupLossG: 15,
       material: epoxy,
     });
-    // Arithmetic on the issue 3 definitions: 240 in³ − 60 in³ = 180 in³; × 1.10 = 198 in³.
+    // Arithmetic on the definitions: 240 in³ − 60 in³ = 180 in³; × 1.10 = 198 in³.
     expect(p.cavityVolumeIn3).toBeCloseTo(240, 10);
     expect(p.netVolumeIn3).toBeCloseTo(180, 10);
     expect(p.fillVolumeIn3).toBeCloseTo(198, 10);
