@@ -125,6 +125,11 @@ export const batchSchema = z.object({
   potLifeMassG: z.number().nullable(),
   abandonReason: z.string().nullable(),
   interruptedReason: z.string().nullable(),
+  /**
+   * Why the batch can only end NO-GO whatever the scale shows (its contents could not be
+   * established after a hub restart); absent for an ordinary batch.
+   */
+  noGoReason: z.string().nullable().optional(),
   /** ISO times of each step: created, partConfirmed (per part), saved, abandoned… */
   steps: z.record(z.string(), z.string()),
   createdAt: z.string(),

@@ -210,7 +210,7 @@ describe('batch state machine: abandon, interrupt, resume', () => {
 
   it('credits the pour reached before a lost tare and shrinks the rest', () => {
     const rec = interrupt(atPartB(100), 'hub restarted', T0);
-    const back = resume(rec, { lost: true, lastNetG: 10 }, T0);
+    const back = resume(rec, { lost: true, creditG: 10 }, T0);
     expect(back.parts[1]!.actualG).toBe(10);
     expect(back.active!.tared).toBe(false);
     expect(back.active!.targetG).toBeCloseTo(4, 10);
@@ -218,6 +218,20 @@ describe('batch state machine: abandon, interrupt, resume', () => {
     const saved = confirmPour(markTared(back, T0), steady(4.05), T0);
     expect(saved.parts[1]!.actualG).toBeCloseTo(14.05, 10);
     expect(saved.verdict).toBe('GO');
+  });
+
+  it('can only end NO-GO once its contents were uncertain after a restart', () => {
+    const rec = interrupt(atPartB(100), 'hub restarted', T0);
+    const back = resume(
+      rec,
+      { lost: true, creditG: 10, uncertain: 'contents uncertain after a restart' },
+      T0,
+    );
+    // Inside the band by the scale, and still NO-GO: nobody knows what the cup really holds.
+    const saved = confirmPour(markTared(back, T0), steady(4.05), T0);
+    expect(saved.state).toBe('saved');
+    expect(saved.verdict).toBe('NO-GO');
+    expect(saved.noGoReason).toBe('contents uncertain after a restart');
   });
 
   it('leaves a saved batch alone when interrupted', () => {

@@ -40,6 +40,11 @@ export interface BatchRecord {
   ratioDeviationPct: number | null;
   abandonReason: string | null;
   interruptedReason: string | null;
+  /**
+   * Why this batch cannot end GO whatever the scale shows (its contents could not be established
+   * after a restart); null for an ordinary batch.
+   */
+  noGoReason: string | null;
   steps: Record<string, string>;
   lots: { part: number; code: string; lotId: string | null; warnings: LotWarning[] }[];
 }
@@ -158,6 +163,7 @@ export function startBatch(input: {
     ratioDeviationPct: null,
     abandonReason: null,
     interruptedReason: null,
+    noGoReason: null,
     steps: { created: input.now },
     lots: input.lots,
   };
@@ -249,7 +255,7 @@ function advance(rec: BatchRecord, now: string): BatchRecord {
   if (next === -1) {
     const done = withDeviation(rec);
     const inBand = Math.abs(done.ratioDeviationPct ?? 0) <= rec.tolerancePct + EPS;
-    return save(done, inBand ? 'GO' : 'NO-GO', now);
+    return save(done, inBand && !rec.noGoReason ? 'GO' : 'NO-GO', now);
   }
   const actuals = actualsOf(rec);
   const targetG = nextPartTargetG(rec.weightRatio, actuals);
@@ -406,12 +412,14 @@ export function interrupt(rec: BatchRecord, reason: string, now: string): BatchR
 
 /**
  * Back to weighing. When the tare was lost (the hub restarted, the scale was power-cycled), what
- * the active pour had reached before the interruption is credited to its part, the rest of the
- * pour is judged on a fresh tare, and its target and band shrink by the credited amount.
+ * the active pour holds — established from the balance by the caller — is credited to its part,
+ * the rest of the pour is judged on a fresh tare, and its target and band shrink by the credit.
+ * Contents that could not be established are credited as best known, and the batch can then
+ * only end NO-GO, with the reason recorded for a lead to decide.
  */
 export function resume(
   rec: BatchRecord,
-  tare: { lost: false } | { lost: true; lastNetG: number | undefined },
+  tare: { lost: false } | { lost: true; creditG: number; uncertain?: string },
   now: string,
 ): BatchRecord {
   if (rec.state !== 'interrupted' || !rec.resumeState || !rec.active) {
@@ -419,8 +427,7 @@ export function resume(
   }
   let { parts, active } = rec;
   if (tare.lost) {
-    const credit =
-      active.tared && tare.lastNetG !== undefined && tare.lastNetG > 0 ? tare.lastNetG : 0;
+    const credit = active.tared && tare.creditG > 0 ? tare.creditG : 0;
     parts = parts.map((p, i) =>
       i === active.part && credit > 0 ? { ...p, actualG: (p.actualG ?? 0) + credit } : p,
     );
@@ -440,6 +447,7 @@ export function resume(
     state: rec.resumeState,
     resumeState: null,
     interruptedReason: null,
+    noGoReason: tare.lost && tare.uncertain ? tare.uncertain : rec.noGoReason,
     steps: stamp(rec.steps, 'resumed', now),
   };
 }

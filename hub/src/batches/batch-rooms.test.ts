@@ -199,6 +199,73 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     expect(back.trace!.at(-1)![1]).toBeCloseTo(7, 2);
   });
 
+  describe('a hub killed while part A pours: 26.04 g in the cup, 14.77 g last written', () => {
+    async function killMidPartA() {
+      const batch = await service.create(
+        { benchId: 'bench-1', materialId: 'sc-14', totalMassG: 114, lots: [] },
+        TOMAS,
+      );
+      await service.tare(batch.id, TOMAS);
+      for (const g of [2, 6, 10, 14.77]) scales.print(g, false);
+      clock.advance(TRACE_FLUSH_MS);
+      for (const g of [18, 22, 26.04]) scales.print(g, false);
+      scales.print(26.04, true);
+      // kill -9: no last flush, nothing more from the old rooms.
+      runner.beforeApplicationShutdown();
+      events = new RecordingEvents();
+      await boot();
+      return batch.id;
+    }
+
+    it('reads the 26.04 g from a balance that kept its tare, and asks for the rest', async () => {
+      const id = await killMidPartA();
+      scales.hubRestarted(true);
+      scales.print(26.04);
+      const back = await service.resume(id, TOMAS);
+      expect(back.parts[0]!.actualG).toBeCloseTo(26.04, 6);
+      // 100 − 26.04 = 73.96 g still to pour, on a fresh tare the hub gives by itself.
+      expect(back.active).toMatchObject({ part: 0, tared: true });
+      expect(back.active!.targetG).toBeCloseTo(73.96, 6);
+      scales.print(73.96);
+      const afterA = await service.next(id, TOMAS);
+      expect(afterA.parts[0]!.actualG).toBeCloseTo(100, 6);
+      await holdSteady(14.05, DWELL_MS + 100);
+      expect(lastBatch()).toMatchObject({ id, state: 'saved', verdict: 'GO' });
+    });
+
+    it('reads it as display − stored gross from a power-cycled balance that prints gross', async () => {
+      const id = await killMidPartA();
+      scales.hubRestarted(false);
+      scales.lineMode = 'gross';
+      scales.print(66.04);
+      const back = await service.resume(id, TOMAS);
+      expect(back.parts[0]!.actualG).toBeCloseTo(26.04, 6);
+      expect(back.noGoReason ?? null).toBeNull();
+    });
+
+    it('cannot end GO when the balance does not say and the reading fits both meanings', async () => {
+      const id = await killMidPartA();
+      scales.hubRestarted(false);
+      scales.lineMode = 'unknown';
+      scales.print(66.04);
+      const back = await service.resume(id, TOMAS);
+      expect(back.noGoReason).toMatch(/^contents uncertain after a restart/);
+      scales.print(100 - back.parts[0]!.actualG!);
+      await service.next(id, TOMAS);
+      await holdSteady(14, DWELL_MS + 100);
+      // Steady inside the band by the scale, and still NO-GO, with the reason kept.
+      expect(lastBatch()).toMatchObject({ id, state: 'saved', verdict: 'NO-GO' });
+      expect(lastBatch().noGoReason).toMatch(/contents uncertain after a restart/);
+    });
+
+    it('asks to wait while the reading moves', async () => {
+      const id = await killMidPartA();
+      scales.hubRestarted(true);
+      scales.print(26.04, false);
+      await expect(service.resume(id, TOMAS)).rejects.toThrow(/steady/);
+    });
+  });
+
   it('refuses an operator at another bench', async () => {
     const id = await throughPartA();
     await expect(service.next(id, { ...TOMAS, benchId: 'bench-2' })).rejects.toThrow(

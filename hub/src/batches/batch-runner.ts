@@ -24,8 +24,11 @@ import { BenchSessions, type BenchScales, type BenchSession } from './bench-sess
 
 /** Pour events to the station at most this often (readings between are judged, not all sent). */
 export const POUR_EMIT_MS = 40;
-/** How often a growing pour trace is written: at most this much of a pour is lost to a crash. */
-export const TRACE_FLUSH_MS = 2000;
+/**
+ * How often a growing pour trace is written: a crash loses at most this much of the trace (the
+ * cup's contents themselves are read back from the balance after a restart).
+ */
+export const TRACE_FLUSH_MS = 400;
 
 /**
  * Readings in, verdicts out: judges every reading against its bench's open batch, keeps the pour

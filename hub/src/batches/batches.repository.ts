@@ -19,6 +19,9 @@ export type BatchDetail = Pick<
   handledBy?: NonNullable<Batch['handledBy']>;
   /** The hub restarted mid-pour: the balance's tare may be gone, so resume asks again. */
   tareLost?: boolean;
+  /** Gross on the balance when the active pour was tared (the cup and earlier parts). */
+  tareGrossG?: number;
+  noGoReason?: string | null;
 };
 
 export const detailOf = (row: BatchRow): BatchDetail => row.detail as BatchDetail;
@@ -41,6 +44,7 @@ export function recordOf(row: BatchRow): BatchRecord {
     ratioDeviationPct: row.ratioDeviationPct ?? null,
     abandonReason: row.abandonReason ?? null,
     interruptedReason: row.interruptedReason ?? null,
+    noGoReason: d.noGoReason ?? null,
     steps: d.steps,
     lots: d.lots,
   };
@@ -59,6 +63,8 @@ export function detailFor(rec: BatchRecord, keep: BatchDetail): BatchDetail {
     potLifeMassG: keep.potLifeMassG,
     ...(keep.handledBy ? { handledBy: keep.handledBy } : {}),
     ...(keep.tareLost ? { tareLost: true } : {}),
+    ...(keep.tareGrossG !== undefined ? { tareGrossG: keep.tareGrossG } : {}),
+    ...(rec.noGoReason ? { noGoReason: rec.noGoReason } : {}),
   };
 }
 
@@ -87,6 +93,7 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     potLifeMassG: d.potLifeMassG,
     abandonReason: rec.abandonReason,
     interruptedReason: rec.interruptedReason,
+    ...(rec.noGoReason ? { noGoReason: rec.noGoReason } : {}),
     steps: rec.steps,
     createdAt: row.createdAt.toISOString(),
     savedAt: rec.state === 'saved' ? (rec.steps.saved ?? null) : null,

@@ -25,6 +25,7 @@ import {
   type BatchStore,
 } from './batches.repository.js';
 import { BenchSessions, type BenchSession } from './bench-sessions.js';
+import { UNCERTAIN_AFTER_RESTART } from './cup-contents.js';
 import { decodeTrace } from './pour-trace.js';
 
 /**
@@ -164,7 +165,7 @@ export class BatchesService {
           'WRONG_STATE',
         );
       }
-      await this.sessions.tareScale(session.benchId);
+      await this.sessions.tareFor(session);
       return markTared(rec, this.sessions.nowIso());
     });
   }
@@ -198,6 +199,12 @@ export class BatchesService {
     );
   }
 
+  /**
+   * Back to weighing once the scale is back. After a hub restart the balance's tare may be gone:
+   * what the active pour holds is read from the balance itself, never from the record's last
+   * trace point; where it cannot be told within max(0.5 g, 2 d) the batch weighs on but can only
+   * end NO-GO, "contents uncertain after a restart", for a lead to decide.
+   */
   resume(id: number, user: AuthUser): Promise<Batch> {
     return this.act(id, user, async (session) => {
       const status = this.sessions.scaleStatus(session.benchId);
@@ -207,12 +214,29 @@ export class BatchesService {
           'WRONG_STATE',
         );
       }
-      const tareLost = detailOf(session.row).tareLost === true;
-      const lastNetG = session.trace.at(-1)?.[1];
+      const now = this.sessions.nowIso();
+      if (detailOf(session.row).tareLost !== true || !session.rec.active?.tared) {
+        return resume(session.rec, { lost: false }, now);
+      }
+      const contents = this.sessions.contentsAfterRestart(session);
+      if (!contents.known && /not steady/.test(contents.why)) {
+        throw new BatchRefusal('Wait until the reading is steady, then resume', 'NOT_STABLE');
+      }
+      if (contents.known) {
+        this.logger.log(
+          `Batch ${id}: ${contents.pouredG.toFixed(2)} g in the pour after the restart (${contents.how})`,
+        );
+        return resume(session.rec, { lost: true, creditG: contents.pouredG }, now);
+      }
+      this.logger.warn(`Batch ${id}: ${UNCERTAIN_AFTER_RESTART}: ${contents.why}`);
       return resume(
         session.rec,
-        tareLost ? { lost: true, lastNetG } : { lost: false },
-        this.sessions.nowIso(),
+        {
+          lost: true,
+          creditG: session.trace.at(-1)?.[1] ?? 0,
+          uncertain: `${UNCERTAIN_AFTER_RESTART}: ${contents.why}`,
+        },
+        now,
       );
     });
   }

@@ -23,6 +23,7 @@ import {
   type BatchRow,
   type BatchStore,
 } from './batches.repository.js';
+import { contentsAfterRestart, type CupContents } from './cup-contents.js';
 import { decodeTrace, type TracePoint } from './pour-trace.js';
 
 /** What the batch rooms ask of a bench's scale; `ScalesService` in the hub, a fake in tests. */
@@ -35,6 +36,7 @@ export type BenchScales = Pick<
   | 'tare'
   | 'capacityG'
   | 'readabilityG'
+  | 'frame'
   | 'onReading'
   | 'onAttach'
 >;
@@ -176,9 +178,12 @@ export class BenchSessions {
     const active = session.rec.active;
     const movedOn =
       active && !active.tared && isWeighing(session.rec.state) && before.active !== active;
-    if (!movedOn || (active.part === 0 && active.kind === 'first')) return;
+    if (!movedOn) return;
+    // The empty cup of part A is the operator's to tare; a cup that holds something (later parts,
+    // or part A credited after a restart) is tared by the hub so nothing in it is counted twice.
+    if (active.part === 0 && active.kind === 'first' && !session.rec.parts[0]!.actualG) return;
     try {
-      await this.tareScale(session.benchId);
+      await this.tareFor(session);
       await this.commit(session, markTared(session.rec, this.nowIso()));
     } catch (err) {
       // The operator sees an untared pour and a Tare button; nothing is lost.
@@ -186,8 +191,24 @@ export class BenchSessions {
     }
   }
 
+  /**
+   * Tares the balance for the session's active pour and keeps the gross it then showed (the cup
+   * and the earlier parts), written with the next commit: after a restart it tells what the
+   * active pour holds.
+   */
+  async tareFor(session: BenchSession): Promise<void> {
+    await this.tareScale(session.benchId);
+    const latest = this.scales.latest(session.benchId);
+    if (latest && !latest.outOfRange) {
+      session.row = {
+        ...session.row,
+        detail: { ...detailOf(session.row), tareGrossG: latest.grossG },
+      };
+    }
+  }
+
   /** Asks the balance to tare; a balance that will not is the operator's to wait out. */
-  async tareScale(benchId: string): Promise<void> {
+  private async tareScale(benchId: string): Promise<void> {
     const status = this.scales.status(benchId);
     if (status.state !== 'online') {
       throw new BatchRefusal(`The scale is ${status.state}: it cannot tare now`, 'WRONG_STATE');
@@ -222,6 +243,26 @@ export class BenchSessions {
 
   latest(benchId: string): ReadingEvent | undefined {
     return this.scales.has(benchId) ? this.scales.latest(benchId) : undefined;
+  }
+
+  /**
+   * What the active pour of a batch interrupted by a restart holds, read from the balance (see
+   * `cup-contents.ts`).
+   */
+  contentsAfterRestart(session: BenchSession): CupContents {
+    const latest = this.scales.latest(session.benchId);
+    if (!latest || latest.outOfRange) return { known: false, why: 'the scale gives no reading' };
+    const frame = this.scales.frame(session.benchId);
+    return contentsAfterRestart({
+      tareGrossG: detailOf(session.row).tareGrossG,
+      // The hub holds no tare of its own since the restart: gross is what the balance shows.
+      displayG: latest.grossG,
+      stable: latest.stable,
+      lineMode: frame.lineMode,
+      softwareTare: frame.softwareTare,
+      lastTraceNetG: session.trace.at(-1)?.[1],
+      readabilityG: this.scales.readabilityG(session.benchId),
+    });
   }
 
   scaleStatus(benchId: string): ScaleStatusEvent {

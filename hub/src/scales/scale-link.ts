@@ -79,6 +79,8 @@ export class ScaleLink {
   private readonly statusListeners = new Set<Listener<ScaleStatusEvent>>();
   private current: ScaleStatusEvent;
   private last: ReadingEvent | undefined;
+  /** What the last weight line said it shows. */
+  private lastLineMode: 'gross' | 'net' | 'unknown' = 'unknown';
   private seq = 0;
 
   private running = false;
@@ -129,6 +131,18 @@ export class ScaleLink {
 
   latest(): ReadingEvent | undefined {
     return this.last;
+  }
+
+  /**
+   * What the latest reading is measured from: the mode its line stated, and whether the hub's
+   * tare is its own (the line family takes no tare command), so a restart can tell a balance
+   * that kept its tare from one that lost it.
+   */
+  frame(): { lineMode: 'gross' | 'net' | 'unknown'; softwareTare: boolean } {
+    return {
+      lineMode: this.lastLineMode,
+      softwareTare: this.codec !== undefined && this.codec.command('tare') === undefined,
+    };
   }
 
   /** The scale interval d in grams: configured, else read from the scale's printed decimals. */
@@ -380,6 +394,7 @@ export class ScaleLink {
 
   private acceptWeight(t: number, line: Extract<ScaleLine, { kind: 'weight' }>): void {
     this.learnReadability(line);
+    this.lastLineMode = line.mode;
     let grossG: number;
     let netG: number;
     if (line.mode === 'gross') {

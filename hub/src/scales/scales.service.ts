@@ -117,6 +117,11 @@ export class ScalesService implements OnApplicationShutdown {
     return this.link(benchId).zero();
   }
 
+  /** What the bench's latest reading is measured from (see `ScaleLink.frame`). */
+  frame(benchId: string): ReturnType<ScaleLink['frame']> {
+    return this.link(benchId).frame();
+  }
+
   readabilityG(benchId: string): number {
     return this.link(benchId).readabilityG();
   }

@@ -88,11 +88,23 @@ export class FakeBatchStore implements BatchStore {
   }
 }
 
-/** One bench's balance as the batch rooms see it, driven by the test. */
+/**
+ * One bench's balance as the batch rooms see it, driven by the test: a 40 g cup on the pan, a
+ * tare the balance holds, and lines that say net or gross (or not). It outlives a hub restart,
+ * as a real balance does: `hubRestarted()` forgets what the hub knew of its tare.
+ */
 export class FakeScales implements BenchScales {
   state: ScaleStatusEvent['state'] = 'online';
   reading: ReadingEvent | undefined;
   tares = 0;
+  /** What is physically on the pan. */
+  panG = 40;
+  /** The balance's own tare. */
+  tareG = 0;
+  lineMode: 'gross' | 'net' | 'unknown' = 'net';
+  softwareTare = false;
+  /** The hub that reads it knows the tare it gave (false after a restart, until it tares). */
+  private hubKnowsTare = true;
   private readonly readingListeners = new Set<(r: ReadingEvent) => void>();
   private seq = 0;
 
@@ -107,10 +119,14 @@ export class FakeScales implements BenchScales {
   latest = () => this.reading;
   capacityG = () => undefined;
   readabilityG = () => 0.01;
+  frame = () => ({ lineMode: this.lineMode, softwareTare: this.softwareTare });
   onAttach = () => () => undefined;
 
   tare = async (): Promise<void> => {
     this.tares += 1;
+    this.tareG = this.panG;
+    this.hubKnowsTare = true;
+    this.publish(true);
   };
 
   onReading = (_benchId: string, listener: (r: ReadingEvent) => void) => {
@@ -118,14 +134,27 @@ export class FakeScales implements BenchScales {
     return () => this.readingListeners.delete(listener);
   };
 
-  /** The balance prints a net weight now. */
+  /** The pour since the last tare reaches `netG` and the balance prints it. */
   print(netG: number, stable = true): ReadingEvent {
+    this.panG = this.tareG + netG;
+    return this.publish(stable);
+  }
+
+  /** The new hub knows nothing of the old one's tare; `balanceKeepsTare: false` is a power cycle. */
+  hubRestarted(balanceKeepsTare: boolean): void {
+    this.hubKnowsTare = false;
+    if (!balanceKeepsTare) this.tareG = 0;
+  }
+
+  private publish(stable: boolean): ReadingEvent {
+    const displayG = this.panG - this.tareG;
     this.reading = {
       benchId: this.benchId,
       seq: this.seq++,
       t: this.now(),
-      grossG: netG + 40,
-      netG,
+      // In the hub's frame: gross as it knows it, net of the tare it gave.
+      grossG: this.hubKnowsTare ? this.panG : displayG,
+      netG: displayG,
       stable,
     };
     for (const listener of this.readingListeners) listener(this.reading);

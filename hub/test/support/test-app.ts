@@ -42,7 +42,7 @@ export async function startTestHub(
   const config = loadConfig({
     PORT: '0',
     HOST: '127.0.0.1',
-    LOG_LEVEL: 'silent',
+    LOG_LEVEL: process.env.TEST_LOG ?? 'silent',
     TARELINE_DATA_DIR: dataDir,
     ...env,
   });
