@@ -8,7 +8,9 @@ import type {
 } from '@tareline/protocol';
 import { io, type Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { sql } from 'drizzle-orm';
 import { BatchesService } from '../src/batches/batches.service.js';
+import { Database } from '../src/database/database.js';
 import { ScalesService } from '../src/scales/scales.service.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
@@ -276,6 +278,21 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
     expect(bad.status).toBe(400);
     expect(bad.body).toMatchObject({ errors: [{ path: 'totalMassG' }] });
     await bench.post(`/${first.body.id}/abandon`, { reason: 'test batch' });
+  });
+
+  it('numbers batches without gaps, even after the id sequence jumped (as it does at a crash)', async () => {
+    const db = hub.app.get(Database).db;
+    const before = await bench.post('', {
+      benchId: 'bench-1',
+      materialId: sc14.id,
+      totalMassG: 50,
+    });
+    await bench.post(`/${before.body.id}/abandon`, { reason: 'test batch' });
+    // PostgreSQL logs a sequence 32 values ahead; a hub killed then restarts past them.
+    await db.execute(sql`select setval('batches_id_seq', 1000)`);
+    const after = await bench.post('', { benchId: 'bench-1', materialId: sc14.id, totalMassG: 50 });
+    expect(after.body.id).toBe(before.body.id + 1);
+    await bench.post(`/${after.body.id}/abandon`, { reason: 'test batch' });
   });
 });
 

@@ -3,6 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { FakeBatchStore, FakeScales, RecordingEvents } from '../../test/support/batch-fakes.js';
 import { FakeClock } from '../../test/support/fake-clock.js';
 import type { AuthUser } from '../auth/auth-user.js';
+import { NotAllowed, NotFound } from '../common/domain-errors.js';
 import type { MaterialsService } from '../materials/materials.service.js';
 import { BatchRunner, TRACE_FLUSH_MS } from './batch-runner.js';
 import { BatchesService } from './batches.service.js';
@@ -121,10 +122,15 @@ describe('the batch rooms with a fake clock, store and scale', () => {
   it('gives no verdict while the scale is away, and interrupts the batch', async () => {
     await throughPartA();
     scales.state = 'offline';
-    runner.onScaleStatus({ benchId: 'bench-1', state: 'offline', detail: 'the cable is out' });
+    runner.onScaleStatus({
+      benchId: 'bench-1',
+      state: 'offline',
+      detail: 'the cable is out; trying again in 0.3 s',
+    });
     await sessions.of('bench-1')!.queue;
     expect(lastBatch()).toMatchObject({ state: 'interrupted' });
-    expect(lastBatch().interruptedReason).toMatch(/offline: the cable is out/);
+    // The record keeps what happened, not when the link meant to retry.
+    expect(lastBatch().interruptedReason).toBe('The scale went offline: the cable is out');
     const before = pours().length;
     await holdSteady(14.1, 1000);
     // An interrupted batch judges nothing, and nothing saves.
@@ -266,10 +272,18 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     });
   });
 
-  it('refuses an operator at another bench', async () => {
+  it('refuses an operator at another bench, and shows them none of its batches', async () => {
     const id = await throughPartA();
-    await expect(service.next(id, { ...TOMAS, benchId: 'bench-2' })).rejects.toThrow(
-      /only at the bench/,
+    const elsewhere = { ...TOMAS, id: 'p-priya', benchId: 'bench-2' };
+    await expect(service.next(id, elsewhere)).rejects.toThrow(/only at the bench/);
+    await expect(service.get(id, elsewhere)).rejects.toThrow(NotFound);
+    expect(() => service.current('bench-1', elsewhere)).toThrow(NotAllowed);
+    await expect(service.list({ limit: 50, benchId: 'bench-1' }, elsewhere)).rejects.toThrow(
+      NotAllowed,
     );
+    expect(await service.list({ limit: 50 }, elsewhere)).toEqual([]);
+    // At their own bench, and for a lead, the batch is there.
+    expect((await service.get(id, TOMAS)).id).toBe(id);
+    expect(await service.list({ limit: 50 }, { ...TOMAS, role: 'lead' })).toHaveLength(1);
   });
 });

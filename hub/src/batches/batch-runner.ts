@@ -132,7 +132,7 @@ export class BatchRunner
           session,
           interrupt(
             session.rec,
-            `The scale went ${status.state}: ${status.detail}`,
+            `The scale went ${status.state}: ${withoutRetryNote(status.detail)}`,
             this.sessions.nowIso(),
           ),
         );
@@ -178,4 +178,9 @@ export class BatchRunner
       return null;
     }
   }
+}
+
+/** A scale state's detail names when the link retries; a batch record keeps only what happened. */
+export function withoutRetryNote(detail: string): string {
+  return detail.replace(/;?\s*trying again in [\d.]+ s\.?/u, '').trim();
 }

@@ -49,21 +49,25 @@ export class BatchesController {
   constructor(@Inject(BatchesService) private readonly batches: BatchesService) {}
 
   @Get()
-  list(@Query(new ZodValidationPipe(listQuerySchema)) q: z.output<typeof listQuerySchema>) {
-    return this.batches.list(q);
+  list(
+    @Query(new ZodValidationPipe(listQuerySchema)) q: z.output<typeof listQuerySchema>,
+    @CurrentUser() user: AuthUser,
+  ) {
+    return this.batches.list(q, user);
   }
 
   /** The bench's batch in progress, so a reloaded bench screen picks it up again. */
   @Get('current')
   current(
     @Query(new ZodValidationPipe(currentQuerySchema)) q: z.output<typeof currentQuerySchema>,
+    @CurrentUser() user: AuthUser,
   ): { batch: Batch | null } {
-    return { batch: this.batches.current(q.benchId) };
+    return { batch: this.batches.current(q.benchId, user) };
   }
 
   @Get(':id')
-  get(@Param('id', batchId) id: number): Promise<Batch> {
-    return this.batches.get(id);
+  get(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
+    return this.batches.get(id, user);
   }
 
   @Post()

@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
-import { and, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import { Database } from '../database/database.js';
 import { batches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
@@ -133,9 +133,26 @@ export class BatchesRepository implements BatchStore {
     return this.database.db;
   }
 
+  /**
+   * Inserts a batch under the next number after the highest one. Numbers are printed on cup
+   * labels and an auditor asks about every gap; a sequence would skip the numbers it had cached
+   * whenever the hub dies. Two hubs racing for one number: the loser takes the next.
+   */
   async insert(values: NewBatchRow): Promise<BatchRow> {
-    const [row] = await this.db.insert(batches).values(values).returning();
-    return row!;
+    for (let attempt = 1; ; attempt += 1) {
+      try {
+        const [row] = await this.db
+          .insert(batches)
+          .values({
+            ...values,
+            id: sql`(select coalesce(max(${batches.id}), 0) + 1 from ${batches})`,
+          })
+          .returning();
+        return row!;
+      } catch (err) {
+        if (attempt >= 5 || !isUniqueViolation(err)) throw err;
+      }
+    }
   }
 
   async writeRecord(
@@ -193,4 +210,11 @@ export class BatchesRepository implements BatchStore {
       .orderBy(desc(batches.id))
       .limit(filter.limit);
   }
+}
+
+function isUniqueViolation(err: unknown): boolean {
+  for (let e: unknown = err; e instanceof Error; e = e.cause) {
+    if ((e as { code?: string }).code === '23505') return true;
+  }
+  return false;
 }

@@ -45,21 +45,35 @@ export class BatchesService {
 
   // ---- queries ---------------------------------------------------------------------------
 
-  async get(id: number, withTrace = true): Promise<Batch> {
+  /**
+   * A batch by number, with its trace. An operator reads only the batches of the bench they
+   * signed in at (as on the live socket); to them another bench's batch does not exist.
+   */
+  async get(id: number, user?: AuthUser, withTrace = true): Promise<Batch> {
     const session = this.sessions.byBatchId(id);
-    if (session) return toBatch(session.row, session.rec, withTrace ? session.trace : undefined);
-    const row = await this.store.findById(id);
-    if (!row) throw new NotFound(`No batch ${id}`);
-    return toBatch(row, recordOf(row), withTrace ? decodeTrace(row.trace) : undefined);
+    const batch = session
+      ? toBatch(session.row, session.rec, withTrace ? session.trace : undefined)
+      : await this.store.findById(id).then((row) => {
+          if (!row) return undefined;
+          return toBatch(row, recordOf(row), withTrace ? decodeTrace(row.trace) : undefined);
+        });
+    if (!batch || (user && !mayRead(user, batch.benchId))) throw new NotFound(`No batch ${id}`);
+    return batch;
   }
 
   /** The bench's batch in progress (being weighed or interrupted), if any. */
-  current(benchId: string): Batch | null {
+  current(benchId: string, user?: AuthUser): Batch | null {
+    if (user) requireBenchAccess(user, benchId);
     const session = this.sessions.of(benchId);
     return session ? toBatch(session.row, session.rec) : null;
   }
 
-  async list(filter: BatchListFilter): Promise<Batch[]> {
+  /** Batches, newest first; an operator's list is their own bench's. */
+  async list(filter: BatchListFilter, user?: AuthUser): Promise<Batch[]> {
+    if (user?.role === 'operator') {
+      if (filter.benchId) requireBenchAccess(user, filter.benchId);
+      filter = { ...filter, benchId: user.benchId ?? '' };
+    }
     const rows = await this.store.list(filter);
     return rows.map((row) => toBatch(row, recordOf(row)));
   }
@@ -249,7 +263,7 @@ export class BatchesService {
   ): Promise<Batch> {
     const session = this.sessions.byBatchId(id);
     if (!session) {
-      const batch = await this.get(id, false);
+      const batch = await this.get(id, user, false);
       throw new Conflict(`Batch ${id} is ${batch.state}: it takes no more changes`);
     }
     requireBenchAccess(user, session.benchId);
@@ -257,8 +271,11 @@ export class BatchesService {
   }
 }
 
+const mayRead = (user: AuthUser, benchId: string) =>
+  user.role !== 'operator' || user.benchId === benchId;
+
 function requireBenchAccess(user: AuthUser, benchId: string): void {
-  if (user.role === 'operator' && user.benchId !== benchId) {
+  if (!mayRead(user, benchId)) {
     throw new NotAllowed('Operators pour only at the bench they signed in at');
   }
 }

@@ -12,7 +12,7 @@ import type { BenchScales } from '../../src/batches/bench-sessions.js';
 import type { TracePoint } from '../../src/batches/pour-trace.js';
 import { encodeTrace } from '../../src/batches/pour-trace.js';
 
-/** Batch rows in memory; `refuseWrites` makes the next writes fail as a full disk would. */
+/** Batch rows in memory; `refuseWrites` makes the next record writes fail as a full disk would. */
 export class FakeBatchStore implements BatchStore {
   readonly rows = new Map<number, BatchRow>();
   readonly traceWrites: Array<{ id: number; points: number }> = [];
@@ -61,7 +61,6 @@ export class FakeBatchStore implements BatchStore {
   }
 
   async writeTrace(id: number, trace: readonly TracePoint[]): Promise<void> {
-    this.refuse();
     this.rows.set(id, { ...this.rows.get(id)!, trace: encodeTrace(trace) });
     this.traceWrites.push({ id, points: trace.length });
   }
@@ -77,7 +76,10 @@ export class FakeBatchStore implements BatchStore {
   }
 
   async list(filter: BatchListFilter): Promise<BatchRow[]> {
-    return [...this.rows.values()].reverse().slice(0, filter.limit);
+    return [...this.rows.values()]
+      .filter((r) => filter.benchId === undefined || r.benchId === filter.benchId)
+      .reverse()
+      .slice(0, filter.limit);
   }
 
   private refuse(): void {
