@@ -28,8 +28,8 @@ const EXPECTED: Record<string, 'public' | readonly Role[]> = {
   'PUT /api/people/:id/password': ['admin'],
   'POST /api/plan': 'public',
   'GET /api/benches': EVERYONE_SIGNED_IN,
-  // Drives only the in-process simulator of a simulated bench: no real scale can be reached.
-  'POST /api/benches/:id/simulator': 'public',
+  // Pours and unplugs as a person at the bench would: signed in, at that bench for operators.
+  'POST /api/benches/:id/simulator': EVERYONE_SIGNED_IN,
   'GET /api/materials': EVERYONE_SIGNED_IN,
   'GET /api/materials/:id': EVERYONE_SIGNED_IN,
   'POST /api/materials': ['lead', 'admin'],

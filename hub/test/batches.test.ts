@@ -58,7 +58,10 @@ class Bench {
   }
 
   simulate(steps: SimulatorStep[]) {
-    return call(this.hub, 'POST', '/api/benches/bench-1/simulator', { body: steps });
+    return call(this.hub, 'POST', '/api/benches/bench-1/simulator', {
+      body: steps,
+      token: this.token,
+    });
   }
 
   post<T = Batch>(path: string, body?: unknown) {
@@ -378,7 +381,16 @@ describe('a hub restarted with batches in every state', () => {
       });
       const weighing = await start(joss.body.token, 'bench-1');
       const unplugged = await start(tomas.body.token, 'bench-2');
-      await call(hub, 'POST', '/api/benches/bench-2/simulator', { body: [{ do: 'unplug' }] });
+      // Not from another bench: an operator at bench-1 cannot pull bench-2's cable.
+      const refused = await call(hub, 'POST', '/api/benches/bench-2/simulator', {
+        body: [{ do: 'unplug' }],
+        token: joss.body.token,
+      });
+      expect(refused.status).toBe(403);
+      await call(hub, 'POST', '/api/benches/bench-2/simulator', {
+        body: [{ do: 'unplug' }],
+        token: tomas.body.token,
+      });
       const batchesOf = hub.app.get(BatchesService);
       await until(
         'bench-2 interrupted',

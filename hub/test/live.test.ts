@@ -94,7 +94,7 @@ describe('live weights from the simulated bench over socket.io', () => {
     await until('online', () => states.some((s) => s.state === 'online'));
     const res = await fetch(`${hub.url}/api/benches/bench-1/simulator`, {
       method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
+      headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${token}` },
       body: JSON.stringify([{ do: 'place-cup', massG: 42 }, { do: 'settle' }]),
     });
     expect(res.status).toBe(200);
@@ -103,10 +103,19 @@ describe('live weights from the simulated bench over socket.io', () => {
     );
   });
 
+  it('refuses the simulator to anyone not signed in', async () => {
+    const res = await fetch(`${hub.url}/api/benches/bench-1/simulator`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify([{ do: 'unplug' }]),
+    });
+    expect(res.status).toBe(401);
+  });
+
   it('answers a bad script with 400 naming the step, and an unknown bench with 404', async () => {
     const bad = await fetch(`${hub.url}/api/benches/bench-1/simulator`, {
       method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
+      headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${token}` },
       body: JSON.stringify([{ do: 'pour', grams: -5, rateGPerS: 2 }]),
     });
     expect(bad.status).toBe(400);
@@ -114,7 +123,7 @@ describe('live weights from the simulated bench over socket.io', () => {
     expect(body.errors[0]?.path).toBe('0.grams');
     const unknown = await fetch(`${hub.url}/api/benches/bench-9/simulator`, {
       method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
+      headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${token}` },
       body: '[]',
     });
     expect(unknown.status).toBe(404);

@@ -272,6 +272,21 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     });
   });
 
+  it('names whoever drives the simulated scale under an open batch, at once', async () => {
+    const id = await throughPartA();
+    sessions.onSimulatorDriven({
+      benchId: 'bench-1',
+      by: { id: 'p-ilse', name: 'Ilse Varga', role: 'lead' },
+      steps: [{ do: 'pour', grams: 14, rateGPerS: 2 }],
+      at: new Date(clock.now()).toISOString(),
+    });
+    await sessions.of('bench-1')!.queue;
+    expect(lastBatch().handledBy).toEqual([
+      expect.objectContaining({ id: 'p-ilse', name: 'Ilse Varga', role: 'lead' }),
+    ]);
+    expect(store.rows.get(id)!.detail).toMatchObject({ handledBy: [{ id: 'p-ilse' }] });
+  });
+
   it('refuses an operator at another bench, and shows them none of its batches', async () => {
     const id = await throughPartA();
     const elsewhere = { ...TOMAS, id: 'p-priya', benchId: 'bench-2' };

@@ -3,7 +3,7 @@ import type { Batch, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CLOCK, type Clock } from '../auth/clock.js';
 import { ScaleCommandFailed, StoreUnavailable } from '../common/domain-errors.js';
-import { HubEvents } from '../events/hub-events.js';
+import { HubEvents, OnHubEvent, type HubEventMap } from '../events/hub-events.js';
 import { ScaleCommandError } from '../scales/scale-link.js';
 import { ScalesService } from '../scales/scales.service.js';
 import {
@@ -291,6 +291,19 @@ export class BenchSessions {
     }
   }
 
+  /** Whoever drives a simulated scale under an open batch is named with it, at once. */
+  @OnHubEvent('simulator.driven')
+  onSimulatorDriven(event: HubEventMap['simulator.driven']): void {
+    const session = this.sessions.get(event.benchId);
+    if (!session) return;
+    void this.enqueue(session, async () => {
+      if (!this.noteHandler(session, event.by)) return;
+      await this.commit(session, session.rec);
+    }).catch((err: unknown) =>
+      this.logger.warn(`Batch ${session.id}: handler not written yet: ${(err as Error).message}`),
+    );
+  }
+
   announce(session: BenchSession): void {
     this.events.emit('batch.changed', {
       benchId: session.benchId,
@@ -302,10 +315,15 @@ export class BenchSessions {
    * Someone other than the operator who started the batch acts on it: they are named with the
    * batch from then on, so a batch handed over at a shift change is not credited to one person.
    */
-  private noteHandler(session: BenchSession, user: AuthUser): void {
+  private noteHandler(
+    session: BenchSession,
+    user: Pick<AuthUser, 'id' | 'name' | 'role'>,
+  ): boolean {
     const detail = detailOf(session.row);
     const handledBy = detail.handledBy ?? [];
-    if (user.id === session.row.operatorId || handledBy.some((h) => h.id === user.id)) return;
+    if (user.id === session.row.operatorId || handledBy.some((h) => h.id === user.id)) {
+      return false;
+    }
     session.row = {
       ...session.row,
       detail: {
@@ -316,6 +334,7 @@ export class BenchSessions {
         ],
       },
     };
+    return true;
   }
 }
 

@@ -5,7 +5,9 @@ import {
   type BenchSummary,
   type SimulatorStep,
 } from '@tareline/protocol';
-import { Public, Roles } from '../auth/access.decorator.js';
+import { Roles } from '../auth/access.decorator.js';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser } from '../auth/current-user.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { BenchesService } from './benches.service.js';
 
@@ -21,18 +23,19 @@ export class BenchesController {
   }
 
   /**
-   * Drives a simulated bench's scale through scripted steps (demos and browser tests). Public:
-   * it only reaches benches whose weights are simulated anyway (409 for a real scale).
+   * Drives a simulated bench's scale through scripted steps (demos and browser tests): only for
+   * someone who may work at that bench (409 for a real scale), and recorded with who did it.
    */
   @Post(':id/simulator')
   @HttpCode(200)
-  @Public()
+  @Roles('operator', 'lead', 'admin')
   async runSimulator(
     @Param('id', new ZodValidationPipe(benchIdSchema, 'Not a bench id')) id: string,
     @Body(new ZodValidationPipe(simulatorScriptSchema, 'Not a simulator script'))
     steps: SimulatorStep[],
+    @CurrentUser() user: AuthUser,
   ): Promise<{ benchId: string; steps: number }> {
-    await this.benches.runSimulator(id, steps);
+    await this.benches.runSimulator(id, steps, user);
     return { benchId: id, steps: steps.length };
   }
 }

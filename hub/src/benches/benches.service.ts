@@ -6,7 +6,9 @@ import {
   type ScaleLinkSettings,
   type SimulatorStep,
 } from '@tareline/protocol';
-import { Conflict, NotApplicable, NotFound } from '../common/domain-errors.js';
+import type { AuthUser } from '../auth/auth-user.js';
+import { Conflict, NotAllowed, NotApplicable, NotFound } from '../common/domain-errors.js';
+import { HubEvents } from '../events/hub-events.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { ScalesService } from '../scales/scales.service.js';
 import { BenchesRepository, type NewBenchRow } from './benches.repository.js';
@@ -26,6 +28,7 @@ export class BenchesService implements OnApplicationBootstrap {
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @Inject(BenchesRepository) private readonly repository: BenchesRepository,
     @Inject(ScalesService) private readonly scales: ScalesService,
+    @Inject(HubEvents) private readonly events: HubEvents,
   ) {}
 
   async onApplicationBootstrap(): Promise<void> {
@@ -83,8 +86,15 @@ export class BenchesService implements OnApplicationBootstrap {
       });
   }
 
-  /** Runs scripted steps on a simulated bench's simulator; resolves when they are done. */
-  async runSimulator(benchId: string, steps: SimulatorStep[]): Promise<void> {
+  /**
+   * Runs scripted steps on a simulated bench's simulator; resolves when they are done. It pours
+   * and unplugs as a person at the bench would, so only someone who may work at that bench can,
+   * and who did it is published (`simulator.driven`): the open batch names them.
+   */
+  async runSimulator(benchId: string, steps: SimulatorStep[], user: AuthUser): Promise<void> {
+    if (user.role === 'operator' && user.benchId !== benchId) {
+      throw new NotAllowed('Operators drive only the scale of the bench they signed in at');
+    }
     if (!this.scales.has(benchId)) throw new NotFound(`There is no bench "${benchId}"`);
     const simulator = this.scales.simulator(benchId);
     if (!simulator) {
@@ -92,6 +102,15 @@ export class BenchesService implements OnApplicationBootstrap {
         `The scale of bench "${benchId}" is not simulated: there is no simulator to drive`,
       );
     }
+    this.logger.log(
+      `${benchId}: simulated scale driven by ${user.name} (${steps.map((s) => s.do).join(', ')})`,
+    );
+    this.events.emit('simulator.driven', {
+      benchId,
+      by: { id: user.id, name: user.name, role: user.role },
+      steps,
+      at: new Date().toISOString(),
+    });
     try {
       await simulator.runScript(steps);
     } catch (err) {

@@ -1,6 +1,12 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { EventEmitter2, OnEvent } from '@nestjs/event-emitter';
-import type { BatchEvent, PourEvent, ScaleStatusEvent } from '@tareline/protocol';
+import type {
+  BatchEvent,
+  PourEvent,
+  Role,
+  ScaleStatusEvent,
+  SimulatorStep,
+} from '@tareline/protocol';
 
 /**
  * What happens inside the hub that other rooms may want to hear about. Publishers do not know
@@ -14,6 +20,13 @@ export interface HubEventMap {
   'pour.judged': PourEvent;
   /** A bench's scale changed state (online, stale, offline, error). */
   'scale.status': ScaleStatusEvent;
+  /** Someone drove a simulated bench's scale (what a real bench's operator does by hand). */
+  'simulator.driven': {
+    benchId: string;
+    by: { id: string; name: string; role: Role };
+    steps: SimulatorStep[];
+    at: string;
+  };
 }
 
 export type HubEventName = keyof HubEventMap;

@@ -75,7 +75,12 @@ async function templateFolder(kind: 'demo' | 'migrated'): Promise<string | undef
   const release = await lockfile.lock(root, {
     lockfilePath: join(root, `${kind}.lock`),
     realpath: false,
-    retries: { retries: 600, minTimeout: 50, maxTimeout: 200 },
+    // Making a template takes seconds, many on a loaded machine: a generous staleness, so a
+    // waiting worker never takes the lock from one still making it.
+    stale: 300_000,
+    update: 10_000,
+    retries: { retries: 3000, minTimeout: 50, maxTimeout: 200 },
+    onCompromised: () => undefined,
   });
   try {
     const made = await access(ready).then(
