@@ -284,7 +284,11 @@ export function confirmPour(
   requireWeighing(rec);
   const { netG } = requireReading(rec, reading);
   const active = rec.active!;
-  if (!(netG > 0)) throw new BatchRefusal('Nothing has been poured yet', 'NOTHING_POURED');
+  // A part credited after a restart may already be complete: nothing more to pour is fine then.
+  const credited = (rec.parts[active.part]!.actualG ?? 0) > 0;
+  if (!(netG > 0) && !(credited && netG >= 0)) {
+    throw new BatchRefusal('Nothing has been poured yet', 'NOTHING_POURED');
+  }
   if (active.band) {
     const verdict = judgeReading(netG, true, active.band);
     if (verdict !== 'GO') {
@@ -298,7 +302,7 @@ export function confirmPour(
   }
   const letter = PART_NAMES[active.part];
   const parts = rec.parts.map((p, i) =>
-    i === active.part ? { ...p, actualG: (p.actualG ?? 0) + netG } : p,
+    i === active.part ? { ...p, actualG: (p.actualG ?? 0) + Math.max(0, netG) } : p,
   );
   const stepName = active.kind === 'top-up' ? `topUp${letter}` : `confirmed${letter}`;
   return advance({ ...rec, parts, steps: stamp(rec.steps, stepName, now) }, now);
