@@ -6,7 +6,7 @@ import { useLocation, useNavigate } from 'react-router-dom';
 import { ApiRequestError } from '../../../lib/api-client';
 import { setSession } from '../../../lib/auth';
 import { deskSignIn } from '../api/sign-in';
-import { Field, inputClass } from './field';
+import { Field, inputClass } from '../../../components/form/field';
 
 /** Desk sign-in with e-mail and password; returns to the page the visitor came from. */
 export function DeskSignIn() {

@@ -1,14 +1,29 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { createBatchSchema, type Material, type PlanMaterial } from '@tareline/protocol';
-import { useId, useMemo, useState } from 'react';
+import {
+  createBatchSchema,
+  type Material,
+  type PlanMaterial,
+  type PlanRequestInput,
+} from '@tareline/protocol';
+import { useId, useMemo, useState, type ComponentType } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { VolumeEstimator } from '../../plan/components/volume-estimator';
-import { useBenches } from '../../scale/api/get-benches';
+import { useBenches } from '../../../lib/benches';
 import { primaryButton, secondaryButton } from './buttons';
 
 const amountSchema = z.object({ totalMassG: createBatchSchema.shape.totalMassG });
 type AmountForm = z.input<typeof amountSchema>;
+
+/**
+ * The volume estimator, handed in by the app (features do not import each other): it takes the
+ * chosen material, its tolerance and the bench scale, and hands back a total mass to use.
+ */
+export type Estimator = ComponentType<{
+  material: PlanMaterial;
+  tolerancePct: number;
+  scale?: PlanRequestInput['scale'];
+  onUse: (totalMassG: number) => void;
+}>;
 
 /** What is typed: '' is nothing yet, "1,5" is read as 1.5, anything else as a number (or NaN). */
 function asNumber(raw: unknown): number | undefined {
@@ -21,11 +36,13 @@ export function AmountStep({
   benchId,
   material,
   initialG,
+  estimator: VolumeEstimator,
   onDone,
 }: {
   benchId: string;
   material: Material;
   initialG: number | undefined;
+  estimator: Estimator;
   onDone: (totalMassG: number) => void;
 }) {
   const id = useId();

@@ -1,9 +1,9 @@
 import type { ReadingEvent, ScaleState, ScaleStatusEvent } from '@tareline/protocol';
 import { useRef, type ReactNode } from 'react';
-import { useEasedScaleX } from '../hooks/use-eased-scale';
-import type { GaugeBand, GaugeVerdict } from '../types';
-import { decimalsFor, formatGrams } from '../../../lib/grams';
-import { trackEndG, trackFraction } from '../utils/format-weight';
+import { useEasedScaleX } from '../../hooks/use-eased-scale';
+import type { GaugeBand, GaugeVerdict } from './types';
+import { decimalsFor, formatGrams } from '../../lib/grams';
+import { trackEndG, trackFraction } from './track';
 import { VerdictBadge } from './verdict-badge';
 
 export interface GaugeProps {

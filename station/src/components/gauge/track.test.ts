@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { decimalsFor, formatGrams } from '../../../lib/grams';
-import { trackEndG, trackFraction } from './format-weight';
+import { decimalsFor, formatGrams } from '../../lib/grams';
+import { trackEndG, trackFraction } from './track';
 
 describe('gauge number formatting', () => {
   it('shows as many decimals as the scale interval', () => {

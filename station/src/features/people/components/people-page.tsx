@@ -21,7 +21,7 @@ import {
   useUpdatePerson,
 } from '../api/people';
 import { useCodeScanner } from '../../../hooks/use-code-scanner';
-import { Field, inputClass } from './field';
+import { Field, inputClass } from '../../../components/form/field';
 
 const button = 'min-h-11 rounded-lg px-4 font-semibold';
 const primary = `${button} bg-steel text-paper`;
