@@ -15,7 +15,9 @@ export const ReviewRoute = lazy(() =>
 export const PeoplePage = lazy(() =>
   import('../features/people/components/people-page').then((m) => ({ default: m.PeoplePage })),
 );
-export const PlanRoute = lazy(() => import('./routes/plan').then((m) => ({ default: m.PlanRoute })));
+export const PlanRoute = lazy(() =>
+  import('./routes/plan').then((m) => ({ default: m.PlanRoute })),
+);
 export const BenchScaleRoute = lazy(() =>
   import('./routes/bench-scale').then((m) => ({ default: m.BenchScaleRoute })),
 );

@@ -18,7 +18,12 @@ import {
 } from 'react-hook-form';
 import { usePlanPreview } from '../hooks/use-plan-preview';
 import { formatMass } from '../utils/format';
-import { CheckField, FieldGroup, NumberField, SelectField } from '../../../components/form/plan-fields';
+import {
+  CheckField,
+  FieldGroup,
+  NumberField,
+  SelectField,
+} from '../../../components/form/plan-fields';
 import { PlanSteps } from './plan-steps';
 
 type Shape = 'box' | 'cylinder' | 'frustum' | 'volume' | 'water';
