@@ -5,9 +5,10 @@ import {
   type PlanMaterial,
   type PlanRequestInput,
 } from '@tareline/protocol';
-import { useId, useMemo, useState, type ComponentType } from 'react';
+import { useMemo, useState, type ComponentType } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
+import { asNumber, NumberField } from '../../../components/form/field';
 import { useBenches } from '../../../lib/benches';
 import { primaryButton, secondaryButton } from './buttons';
 
@@ -25,12 +26,6 @@ export type Estimator = ComponentType<{
   onUse: (totalMassG: number) => void;
 }>;
 
-/** What is typed: '' is nothing yet, "1,5" is read as 1.5, anything else as a number (or NaN). */
-function asNumber(raw: unknown): number | undefined {
-  const text = String(raw ?? '').trim();
-  return text === '' ? undefined : Number(text.replace(',', '.'));
-}
-
 /** Step 2: the total mass to mix, typed or worked out with the volume estimator. */
 export function AmountStep({
   benchId,
@@ -45,7 +40,6 @@ export function AmountStep({
   estimator: Estimator;
   onDone: (totalMassG: number) => void;
 }) {
-  const id = useId();
   const [estimating, setEstimating] = useState(false);
   const {
     register,
@@ -87,29 +81,14 @@ export function AmountStep({
         onSubmit={handleSubmit((v) => onDone(amountSchema.parse(v).totalMassG))}
         className="flex flex-wrap items-end gap-4"
       >
-        <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="text-xl font-semibold">
-            Total mass to mix
-          </label>
-          <div className="flex items-center gap-3">
-            <input
-              id={id}
-              type="text"
-              inputMode="decimal"
-              autoComplete="off"
-              aria-invalid={error ? true : undefined}
-              aria-describedby={error ? `${id}-error` : undefined}
-              className="h-16 w-56 rounded-xl border-2 border-line bg-panel px-4 text-4xl font-bold tabular-nums focus:border-steel focus:outline-none aria-[invalid=true]:border-over"
-              {...register('totalMassG', { setValueAs: asNumber })}
-            />
-            <span className="text-3xl">g</span>
-          </div>
-          {error && (
-            <p id={`${id}-error`} className="text-xl font-semibold text-over">
-              {error}
-            </p>
-          )}
-        </div>
+        <NumberField
+          label="Total mass to mix"
+          unit="g"
+          size="bench"
+          inputClassName="h-16 w-56"
+          error={error}
+          {...register('totalMassG', { setValueAs: asNumber })}
+        />
         <button type="submit" className={primaryButton}>
           Next: lots
         </button>

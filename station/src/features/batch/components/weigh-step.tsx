@@ -4,7 +4,7 @@ import { Gauge } from '../../../components/gauge/gauge';
 import type { LiveBench } from '../../../hooks/use-live-bench';
 import { formatGrams } from '../../../lib/grams';
 import { useBatchIntent, type BatchIntent } from '../api/batch-intents';
-import { partLetter, partName } from '../utils/describe';
+import { partLetter, partName } from '../../../lib/parts';
 import { dangerButton, primaryButton, secondaryButton } from './buttons';
 import { HubError } from './hub-error';
 
