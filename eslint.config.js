@@ -55,6 +55,9 @@ export default tseslint.config(
     files: ['station/src/**/*.{ts,tsx}', 'hub/src/**/*.ts'],
     plugins: { 'import-x': importX },
     settings: {
+      // How import-x reads the TypeScript files an import leads to (no-cycle follows them).
+      'import-x/extensions': importX.flatConfigs.typescript.settings['import-x/extensions'],
+      'import-x/parsers': importX.flatConfigs.typescript.settings['import-x/parsers'],
       'import-x/resolver-next': [
         createTypeScriptImportResolver({
           project: ['station/tsconfig.json', 'hub/tsconfig.test.json'],
