@@ -22,6 +22,8 @@ export default defineConfig({
   build: {
     outDir: 'dist',
     emptyOutDir: true,
+    // scripts/bench-bundle-size.mjs reads it to size what the bench route loads.
+    manifest: true,
   },
   test: {
     environment: 'jsdom',

@@ -1,19 +1,22 @@
 import { Navigate, type RouteObject } from 'react-router-dom';
 import { AppShell } from '../components/layout/app-shell';
 import { DeskSignIn } from '../features/auth/components/desk-sign-in';
-import { PeoplePage } from '../features/auth/components/people-page';
+import { HubStatus } from '../features/health/components/hub-status';
 import { RequireRole } from '../features/auth/components/require-role';
-import { BatchDetail } from '../features/review/components/batch-detail';
-import { BatchesPage } from '../features/review/components/batches-page';
+import {
+  BatchDetail,
+  BatchesPage,
+  BenchScaleRoute,
+  PeoplePage,
+  PlanRoute,
+  ReviewRoute,
+} from './lazy-pages';
 import { BenchHomeRoute, BenchRoute } from './routes/bench';
-import { BenchScaleRoute } from './routes/bench-scale';
 import { NotFoundRoute } from './routes/not-found';
-import { PlanRoute } from './routes/plan';
-import { ReviewRoute } from './routes/review';
 
 export const routes: RouteObject[] = [
   {
-    element: <AppShell />,
+    element: <AppShell hubStatus={<HubStatus />} />,
     children: [
       { index: true, element: <Navigate to="/bench" replace /> },
       {

@@ -1,5 +1,5 @@
 /** Decimal places that show a scale interval d: 0.01 g → 2, 0.1 g → 1, 1 g → 0, 0.005 g → 3. */
-export function decimalsFor(readabilityG: number): number {
+export function decimalsForReadability(readabilityG: number): number {
   if (!(readabilityG > 0)) return 2;
   return Math.max(0, Math.ceil(-Math.log10(readabilityG) - 1e-9));
 }
@@ -9,4 +9,9 @@ export function formatGrams(grams: number, decimals: number): string {
   const text = grams.toFixed(decimals);
   const isZero = Number(text) === 0;
   return isZero ? (0).toFixed(decimals) : text.replace('-', '\u2212');
+}
+
+/** Grams with their unit, to the decimals a scale of that readability shows: "14.10 g". */
+export function gramsText(grams: number, readabilityG: number): string {
+  return `${formatGrams(grams, decimalsForReadability(readabilityG))} g`;
 }

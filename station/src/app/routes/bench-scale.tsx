@@ -1,5 +1,5 @@
 import { useParams } from 'react-router-dom';
-import { useBenches } from '../../features/scale/api/get-benches';
+import { useBenches } from '../../lib/benches';
 import { LiveScale } from '../../features/scale/components/live-scale';
 import { SimulatorPanel } from '../../features/simulator/components/simulator-panel';
 

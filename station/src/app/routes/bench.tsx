@@ -1,9 +1,20 @@
 import { BenchScreen } from '../../features/auth/components/bench-screen';
+import { Suspense, type ComponentProps } from 'react';
 import { BenchFlow } from '../../features/batch/components/bench-flow';
 import { PotLifeReminder } from '../../features/batch/components/pot-life-reminder';
-import { useBenches } from '../../features/scale/api/get-benches';
+import { useBenches } from '../../lib/benches';
 import { SimulatorPanel } from '../../features/simulator/components/simulator-panel';
 import { useSession } from '../../lib/auth';
+import { VolumeEstimator } from '../lazy-pages';
+
+/** The planner's volume estimator inside the bench flow's amount step, loaded when opened. */
+function BenchEstimator(props: ComponentProps<typeof VolumeEstimator>) {
+  return (
+    <Suspense fallback={<p className="text-xl text-muted">Loading the volume estimator…</p>}>
+      <VolumeEstimator {...props} />
+    </Suspense>
+  );
+}
 
 /** The bench screen: sign-in while nobody is signed in here, else the bench's pages. */
 export function BenchRoute() {
@@ -20,7 +31,7 @@ export function BenchHomeRoute() {
         Bench
       </h1>
       {benchId ? (
-        <BenchFlow key={benchId} benchId={benchId} />
+        <BenchFlow key={benchId} benchId={benchId} estimator={BenchEstimator} />
       ) : (
         <p className="text-xl">Sign in at a bench to weigh a batch.</p>
       )}

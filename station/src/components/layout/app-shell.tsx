@@ -1,5 +1,5 @@
+import { Suspense, type ReactNode } from 'react';
 import { NavLink, Outlet } from 'react-router-dom';
-import { HubStatus } from '../../features/health/components/hub-status';
 import { useSession } from '../../lib/auth';
 import { useSessionCheck } from '../../lib/session-check';
 import { useSignOut } from '../../lib/sign-out';
@@ -11,8 +11,11 @@ const areas = [
   { to: '/plan', label: 'Pour planner' },
 ];
 
-/** Header with the areas of the product, the hub indicator and the theme; pages render below it. */
-export function AppShell() {
+/**
+ * Header with the areas of the product, the hub indicator and the theme; pages render below it.
+ * The indicator comes from the app (a feature of its own), so the shell imports no feature.
+ */
+export function AppShell({ hubStatus }: { hubStatus: ReactNode }) {
   const session = useSession();
   const signOut = useSignOut();
   useSessionCheck();
@@ -57,12 +60,15 @@ export function AppShell() {
               )}
             </div>
           )}
-          <HubStatus />
+          {hubStatus}
           <ThemeToggle />
         </div>
       </header>
       <main className="flex-1 p-6">
-        <Outlet />
+        {/* Pages other than the bench load on demand; this shows while one arrives. */}
+        <Suspense fallback={<p className="text-xl text-muted">Loading…</p>}>
+          <Outlet />
+        </Suspense>
       </main>
     </div>
   );

@@ -6,7 +6,7 @@ import { useLocation, useNavigate } from 'react-router-dom';
 import { ApiRequestError } from '../../../lib/api-client';
 import { setSession } from '../../../lib/auth';
 import { deskSignIn } from '../api/sign-in';
-import { Field, inputClass } from './field';
+import { TextField } from '../../../components/form/field';
 
 /** Desk sign-in with e-mail and password; returns to the page the visitor came from. */
 export function DeskSignIn() {
@@ -41,24 +41,20 @@ export function DeskSignIn() {
             {signIn.error instanceof ApiRequestError ? signIn.error.message : 'Sign-in failed'}
           </p>
         )}
-        <Field label="E-mail" error={errors.email?.message} id="login-email">
-          <input
-            id="login-email"
-            type="email"
-            autoComplete="username"
-            className={inputClass}
-            {...form.register('email')}
-          />
-        </Field>
-        <Field label="Password" error={errors.password?.message} id="login-password">
-          <input
-            id="login-password"
-            type="password"
-            autoComplete="current-password"
-            className={inputClass}
-            {...form.register('password')}
-          />
-        </Field>
+        <TextField
+          label="E-mail"
+          error={errors.email?.message}
+          type="email"
+          autoComplete="username"
+          {...form.register('email')}
+        />
+        <TextField
+          label="Password"
+          error={errors.password?.message}
+          type="password"
+          autoComplete="current-password"
+          {...form.register('password')}
+        />
         <button
           type="submit"
           disabled={signIn.isPending}

@@ -1,9 +1,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Dialog, DialogPanel, DialogTitle } from '@headlessui/react';
 import { abandonBatchSchema, type Batch } from '@tareline/protocol';
-import { useId } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
+import { Field } from '../../../components/form/field';
 import { useAbandonBatch } from '../api/abandon-batch';
 import { dangerButton, secondaryButton } from './buttons';
 import { HubError } from './hub-error';
@@ -28,7 +28,6 @@ export function AbandonDialog({
   onClose: () => void;
   onAbandoned: (batch: Batch) => void;
 }) {
-  const id = useId();
   const abandon = useAbandonBatch({ onSuccess: onAbandoned });
   const {
     register,
@@ -67,22 +66,16 @@ export function AbandonDialog({
                 </button>
               ))}
             </div>
-            <label htmlFor={id} className="text-xl font-semibold">
-              Reason
-            </label>
-            <textarea
-              id={id}
-              rows={2}
-              aria-invalid={error ? true : undefined}
-              aria-describedby={error ? `${id}-error` : undefined}
-              className="rounded-xl border-2 border-line bg-paper p-3 text-2xl focus:border-steel focus:outline-none aria-[invalid=true]:border-over"
-              {...register('reason')}
-            />
-            {error && (
-              <p id={`${id}-error`} className="text-xl font-semibold text-over">
-                {error}
-              </p>
-            )}
+            <Field label="Reason" size="bench" error={error}>
+              {(control) => (
+                <textarea
+                  rows={2}
+                  {...control}
+                  className="rounded-xl border-2 border-line bg-paper p-3 text-2xl focus:border-steel focus:outline-none aria-[invalid=true]:border-over"
+                  {...register('reason')}
+                />
+              )}
+            </Field>
             <HubError error={abandon.error} what="Not abandoned" />
             <div className="flex flex-wrap justify-end gap-4">
               <button type="button" onClick={onClose} className={secondaryButton}>

@@ -1,34 +1,45 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { createBatchSchema, type Material, type PlanMaterial } from '@tareline/protocol';
-import { useId, useMemo, useState } from 'react';
+import {
+  createBatchSchema,
+  type Material,
+  type PlanMaterial,
+  type PlanRequestInput,
+} from '@tareline/protocol';
+import { useMemo, useState, type ComponentType } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { VolumeEstimator } from '../../plan/components/volume-estimator';
-import { useBenches } from '../../scale/api/get-benches';
+import { asNumber, NumberField } from '../../../components/form/field';
+import { useBenches } from '../../../lib/benches';
 import { primaryButton, secondaryButton } from './buttons';
 
 const amountSchema = z.object({ totalMassG: createBatchSchema.shape.totalMassG });
 type AmountForm = z.input<typeof amountSchema>;
 
-/** What is typed: '' is nothing yet, "1,5" is read as 1.5, anything else as a number (or NaN). */
-function asNumber(raw: unknown): number | undefined {
-  const text = String(raw ?? '').trim();
-  return text === '' ? undefined : Number(text.replace(',', '.'));
-}
+/**
+ * The volume estimator, handed in by the app (features do not import each other): it takes the
+ * chosen material, its tolerance and the bench scale, and hands back a total mass to use.
+ */
+export type Estimator = ComponentType<{
+  material: PlanMaterial;
+  tolerancePct: number;
+  scale?: PlanRequestInput['scale'];
+  onUse: (totalMassG: number) => void;
+}>;
 
 /** Step 2: the total mass to mix, typed or worked out with the volume estimator. */
 export function AmountStep({
   benchId,
   material,
   initialG,
+  estimator: VolumeEstimator,
   onDone,
 }: {
   benchId: string;
   material: Material;
   initialG: number | undefined;
+  estimator: Estimator;
   onDone: (totalMassG: number) => void;
 }) {
-  const id = useId();
   const [estimating, setEstimating] = useState(false);
   const {
     register,
@@ -70,29 +81,14 @@ export function AmountStep({
         onSubmit={handleSubmit((v) => onDone(amountSchema.parse(v).totalMassG))}
         className="flex flex-wrap items-end gap-4"
       >
-        <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="text-xl font-semibold">
-            Total mass to mix
-          </label>
-          <div className="flex items-center gap-3">
-            <input
-              id={id}
-              type="text"
-              inputMode="decimal"
-              autoComplete="off"
-              aria-invalid={error ? true : undefined}
-              aria-describedby={error ? `${id}-error` : undefined}
-              className="h-16 w-56 rounded-xl border-2 border-line bg-panel px-4 text-4xl font-bold tabular-nums focus:border-steel focus:outline-none aria-[invalid=true]:border-over"
-              {...register('totalMassG', { setValueAs: asNumber })}
-            />
-            <span className="text-3xl">g</span>
-          </div>
-          {error && (
-            <p id={`${id}-error`} className="text-xl font-semibold text-over">
-              {error}
-            </p>
-          )}
-        </div>
+        <NumberField
+          label="Total mass to mix"
+          unit="g"
+          size="bench"
+          inputClassName="h-16 w-56"
+          error={error}
+          {...register('totalMassG', { setValueAs: asNumber })}
+        />
         <button type="submit" className={primaryButton}>
           Next: lots
         </button>

@@ -6,17 +6,17 @@ import { routes } from '../../../app/router';
 import { setSession } from '../../../lib/auth';
 import { signInAnswer, stubHub, type FakeRequest } from '../../../testing/fake-hub';
 import { renderRoutes } from '../../../testing/render';
-import { liveSocket, openedSockets } from '../../scale/testing/fake-live-socket';
+import { liveSocket, openedSockets } from '../../../testing/fake-live-socket';
 import {
   batchFixture,
   partBFixture,
   pourFixture,
   readingFixture,
-} from '../../scale/testing/live-fixtures';
+} from '../../../testing/live-fixtures';
 import { retired, sc14, sc14Lots } from '../testing/materials';
 
 vi.mock('socket.io-client', () =>
-  import('../../scale/testing/fake-live-socket').then((m) => m.fakeSocketIo),
+  import('../../../testing/fake-live-socket').then((m) => m.fakeSocketIo),
 );
 
 const user = userEvent.setup({ delay: null });
@@ -91,9 +91,9 @@ describe('choosing what to mix', { timeout: 20_000 }, () => {
     openBench();
     await user.click(await screen.findByRole('button', { name: /SC-14/ }));
     await user.click(screen.getByRole('button', { name: 'Work it out from the mold' }));
-    // The material's tolerance is the batch's: not asked for again.
+    // The estimator loads on demand; the material's tolerance is the batch's: not asked for again.
+    expect(await screen.findByText(/within ± 1 %, the material's tolerance/)).toBeInTheDocument();
     expect(screen.queryByRole('textbox', { name: 'Tolerance' })).not.toBeInTheDocument();
-    expect(screen.getByText(/within ± 1 %, the material's tolerance/)).toBeInTheDocument();
     await user.type(screen.getByRole('textbox', { name: 'Length' }), '10');
     await user.type(screen.getByRole('textbox', { name: 'Width' }), '10');
     await user.type(screen.getByRole('textbox', { name: 'Height' }), '1');

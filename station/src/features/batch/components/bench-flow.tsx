@@ -1,13 +1,13 @@
 import { WEIGHING_STATES, type Material } from '@tareline/protocol';
 import { useState } from 'react';
 import { useSession } from '../../../lib/auth';
-import { useLiveBench } from '../../scale/hooks/use-live-bench';
+import { useLiveBench } from '../../../hooks/use-live-bench';
 import { usePourKeepsAwake } from '../hooks/use-pour-keeps-awake';
 import { useCreateBatch } from '../api/create-batch';
 import { useMaterials } from '../api/get-materials';
 import { useBenchBatch } from '../hooks/use-bench-batch';
 import { ratioText } from '../utils/describe';
-import { AmountStep } from './amount-step';
+import { AmountStep, type Estimator } from './amount-step';
 import { secondaryButton } from './buttons';
 import { ChooseMaterial } from './choose-material';
 import { FinishedStep } from './finished-step';
@@ -39,7 +39,7 @@ const FRESH: Draft = { step: 'material', lots: {} };
  * The guided flow at a signed-in bench: choose, amount, lots, prepare, then the hub's batch
  * (weighing, interrupted, saved) takes over. A reloaded screen picks up the open batch.
  */
-export function BenchFlow({ benchId }: { benchId: string }) {
+export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: Estimator }) {
   const session = useSession();
   const live = useLiveBench(benchId, { token: session?.token });
   const bench = useBenchBatch(benchId, live.batchEvent?.batch);
@@ -109,6 +109,7 @@ export function BenchFlow({ benchId }: { benchId: string }) {
         benchId={benchId}
         material={draft.material}
         initialG={draft.totalMassG}
+        estimator={estimator}
         onDone={(totalMassG) => setDraft((d) => ({ ...d, step: 'lots', totalMassG }))}
       />
     );

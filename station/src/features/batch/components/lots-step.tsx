@@ -2,7 +2,7 @@ import type { Lot, Material } from '@tareline/protocol';
 import { useId, useState } from 'react';
 import { useLots } from '../api/get-lots';
 import { useCodeScanner } from '../../../hooks/use-code-scanner';
-import { partName } from '../utils/describe';
+import { partName } from '../../../lib/parts';
 import { primaryButton } from './buttons';
 import { HubError } from './hub-error';
 

@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import { formatClock, formatCountdown, secondsLeft } from '../utils/pot-life';
+import { formatClock, formatCountdown } from '../../../lib/countdown';
+import { secondsLeft } from '../utils/pot-life';
 import { lastPoured } from '../utils/last-poured';
 import { useNow } from './after-save/use-now';
 

@@ -1,6 +1,6 @@
 import type { Material } from '@tareline/protocol';
 import { useEffect, useState } from 'react';
-import { clockText } from '../utils/describe';
+import { formatCountdown } from '../../../lib/countdown';
 import { dangerButton, primaryButton, secondaryButton } from './buttons';
 import { HubError } from './hub-error';
 
@@ -112,7 +112,11 @@ function AgitationTimer({
       </p>
       <div className="mt-4 flex flex-wrap items-center gap-4">
         <p role="timer" aria-label="Stirring time left" className="text-6xl font-bold tabular-nums">
-          {state.kind === 'done' ? 'Done' : state.kind === 'skipped' ? 'Skipped' : clockText(leftS)}
+          {state.kind === 'done'
+            ? 'Done'
+            : state.kind === 'skipped'
+              ? 'Skipped'
+              : formatCountdown(leftS)}
         </p>
         {state.kind === 'waiting' && (
           <button

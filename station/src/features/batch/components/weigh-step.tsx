@@ -1,13 +1,18 @@
 import type { Batch, PourEvent, Rescue } from '@tareline/protocol';
-import { useState, type ReactNode } from 'react';
-import { Gauge } from '../../scale/components/gauge';
-import type { LiveBench } from '../../scale/hooks/use-live-bench';
+import { lazy, Suspense, useState, type ReactNode } from 'react';
+import { Gauge } from '../../../components/gauge/gauge';
+import type { LiveBench } from '../../../hooks/use-live-bench';
 import { formatGrams } from '../../../lib/grams';
 import { useBatchIntent, type BatchIntent } from '../api/batch-intents';
-import { partLetter, partName } from '../utils/describe';
-import { AbandonDialog } from './abandon-dialog';
+import { partLetter, partName } from '../../../lib/parts';
 import { dangerButton, primaryButton, secondaryButton } from './buttons';
 import { HubError } from './hub-error';
+
+// The dialog (and the dialog library under it) loads the first time someone abandons a batch,
+// not with the bench screen.
+const AbandonDialog = lazy(() =>
+  import('./abandon-dialog').then((m) => ({ default: m.AbandonDialog })),
+);
 
 /**
  * Step 5: weighing each part on the live gauge against the hub's active pour. The hub tares,
@@ -24,10 +29,19 @@ export function WeighStep({
 }) {
   const intent = useBatchIntent({ onSuccess: onAnswer });
   const [abandoning, setAbandoning] = useState(false);
+  // Once opened it stays mounted, so a reason typed and closed is still there when reopened.
+  const [dialogLoaded, setDialogLoaded] = useState(false);
   const send = (what: BatchIntent) => intent.mutate({ batchId: batch.id, intent: what });
   const online = live.status.state === 'online';
   const abandonButton = (
-    <button type="button" onClick={() => setAbandoning(true)} className={secondaryButton}>
+    <button
+      type="button"
+      onClick={() => {
+        setDialogLoaded(true);
+        setAbandoning(true);
+      }}
+      className={secondaryButton}
+    >
       Abandon batch…
     </button>
   );
@@ -54,15 +68,19 @@ export function WeighStep({
           abandonButton={abandonButton}
         />
       )}
-      <AbandonDialog
-        open={abandoning}
-        batchId={batch.id}
-        onClose={() => setAbandoning(false)}
-        onAbandoned={(b) => {
-          setAbandoning(false);
-          onAnswer(b);
-        }}
-      />
+      {dialogLoaded && (
+        <Suspense fallback={null}>
+          <AbandonDialog
+            open={abandoning}
+            batchId={batch.id}
+            onClose={() => setAbandoning(false)}
+            onAbandoned={(b) => {
+              setAbandoning(false);
+              onAnswer(b);
+            }}
+          />
+        </Suspense>
+      )}
     </div>
   );
 }

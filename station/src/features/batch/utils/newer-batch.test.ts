@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { batchFixture, partBFixture } from '../../scale/testing/live-fixtures';
+import { batchFixture, partBFixture } from '../../../testing/live-fixtures';
 import { newer } from './newer-batch';
 
 describe('newer', () => {

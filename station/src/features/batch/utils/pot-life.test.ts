@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import {
-  formatClock,
-  formatCountdown,
-  heavierThanRated,
-  mixedMassG,
-  secondsLeft,
-  potLifeEndsAt,
-} from './pot-life';
+import { formatClock, formatCountdown } from '../../../lib/countdown';
+import { heavierThanRated, mixedMassG, secondsLeft, potLifeEndsAt } from './pot-life';
 
 describe('pot life', () => {
   it('puts the use-by time one pot life after the save', () => {

@@ -10,24 +10,6 @@ export function secondsLeft(useBy: Date, nowMs: number): number {
   return Math.max(0, Math.ceil((useBy.getTime() - nowMs) / 1000));
 }
 
-const two = (n: number) => String(n).padStart(2, '0');
-
-/** A countdown as mm:ss, or h:mm:ss from an hour up (pot lives run to hours for slow systems). */
-export function formatCountdown(seconds: number): string {
-  const h = Math.floor(seconds / 3600);
-  const m = Math.floor((seconds % 3600) / 60);
-  const s = seconds % 60;
-  return h > 0 ? `${h}:${two(m)}:${two(s)}` : `${two(m)}:${two(s)}`;
-}
-
-/**
- * A wall-clock time as YYYY-MM-DD HH:mm in the bench's own time zone: unambiguous on a cup label
- * whatever the shop's locale.
- */
-export function formatClock(time: Date): string {
-  return `${time.getFullYear()}-${two(time.getMonth() + 1)}-${two(time.getDate())} ${two(time.getHours())}:${two(time.getMinutes())}`;
-}
-
 /**
  * Whether the batch is heavier than the mass its pot life was rated at. A data sheet's pot life
  * holds for that mass; a larger one heats itself faster (exotherm) and gels sooner. Unknown rating

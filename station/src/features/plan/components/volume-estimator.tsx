@@ -5,20 +5,30 @@ import {
   unitLabel,
   VOLUME_UNITS,
   type PlanMaterial,
+  type PlanRequest,
   type PlanRequestInput,
   type PlanResponse,
 } from '@tareline/protocol';
 import { useEffect, useMemo, useState } from 'react';
 import {
+  get,
   useForm,
   useWatch,
-  type FieldErrors,
+  type FieldError,
+  type Path,
   type Resolver,
   type UseFormRegister,
 } from 'react-hook-form';
 import { usePlanPreview } from '../hooks/use-plan-preview';
 import { formatMass } from '../utils/format';
-import { CheckField, FieldGroup, NumberField, SelectField } from './fields';
+import {
+  asNumber,
+  CheckField,
+  FieldGroup,
+  NumberField,
+  SelectField,
+} from '../../../components/form/field';
+import { partLetter } from '../../../lib/parts';
 import { PlanSteps } from './plan-steps';
 
 type Shape = 'box' | 'cylinder' | 'frustum' | 'volume' | 'water';
@@ -33,27 +43,143 @@ const SHAPES: readonly { value: Shape; label: string }[] = [
 ];
 const LENGTH_OPTIONS = LENGTH_UNITS.map((u) => ({ value: u, label: unitLabel(u) }));
 const VOLUME_OPTIONS = VOLUME_UNITS.map((u) => ({ value: u, label: unitLabel(u) }));
-const PART_NAMES = ['A', 'B', 'C'] as const;
 
-/** What a typed box holds: '' is nothing yet, anything else is read as a number ("1,5" too). */
-function asNumber(raw: unknown): number | undefined {
-  if (typeof raw === 'number') return raw;
-  if (raw === undefined || raw === null) return undefined;
-  const text = String(raw).trim();
-  if (text === '') return undefined;
-  return Number(text.replace(',', '.'));
-}
 const num = { setValueAs: asNumber };
+type FieldName = Path<PlanRequestInput>;
 
-/** Reads a nested message from react-hook-form's errors by a dotted path. */
-function messageAt(errors: FieldErrors, path: string): string | undefined {
-  let node: unknown = errors;
-  for (const key of path.split('.')) {
-    if (node === null || typeof node !== 'object') return undefined;
-    node = (node as Record<string, unknown>)[key];
-  }
-  const message = (node as { message?: unknown } | undefined)?.message;
-  return typeof message === 'string' ? message : undefined;
+/** One typed number of a cavity: its field, label, and the unit shown beside it. */
+interface Dimension {
+  name: FieldName;
+  label: string;
+  /** `length` shows the length unit chosen below; anything else is shown as it is. */
+  unit?: 'length' | '°C' | 'g';
+  hint?: string;
+  /** A cylinder is measured across by diameter or by radius: the field shown for one of them. */
+  across?: 'diameter' | 'radius';
+}
+
+/** The fields of one cavity shape, and where its unit is chosen. */
+interface ShapeForm {
+  grid: string;
+  dimensions: readonly Dimension[];
+  unitSelect?: { label: string; options: readonly { value: string; label: string }[] };
+  /** The unit choice sits in the grid beside the one number (a known volume). */
+  unitInGrid?: boolean;
+  /** A cylinder asks first whether it was measured by diameter or radius. */
+  measuredAcross?: boolean;
+}
+
+const LENGTH_UNIT_SELECT = { label: 'Length unit', options: LENGTH_OPTIONS };
+const height: Dimension = { name: 'cavity.height', label: 'Height', unit: 'length' };
+
+const SHAPE_FORMS: Record<Shape, ShapeForm> = {
+  box: {
+    grid: 'grid gap-4 sm:grid-cols-3',
+    dimensions: [
+      { name: 'cavity.length', label: 'Length', unit: 'length' },
+      { name: 'cavity.width', label: 'Width', unit: 'length' },
+      height,
+    ],
+    unitSelect: LENGTH_UNIT_SELECT,
+  },
+  cylinder: {
+    grid: 'grid gap-4 sm:grid-cols-3',
+    measuredAcross: true,
+    dimensions: [
+      { name: 'cavity.diameter', label: 'Diameter', unit: 'length', across: 'diameter' },
+      { name: 'cavity.radius', label: 'Radius', unit: 'length', across: 'radius' },
+      height,
+    ],
+    unitSelect: LENGTH_UNIT_SELECT,
+  },
+  frustum: {
+    grid: 'grid gap-4 sm:grid-cols-3',
+    dimensions: [
+      { name: 'cavity.topDiameter', label: 'Top diameter', unit: 'length' },
+      { name: 'cavity.bottomDiameter', label: 'Bottom diameter', unit: 'length' },
+      height,
+    ],
+    unitSelect: LENGTH_UNIT_SELECT,
+  },
+  volume: {
+    grid: 'grid gap-4 sm:grid-cols-2',
+    dimensions: [{ name: 'cavity.volume', label: 'Volume' }],
+    unitSelect: { label: 'Volume unit', options: VOLUME_OPTIONS },
+    unitInGrid: true,
+  },
+  water: {
+    grid: 'grid gap-4 sm:grid-cols-2',
+    dimensions: [
+      {
+        name: 'cavity.waterMassG',
+        label: 'Water mass',
+        unit: 'g',
+        hint: 'Fill the cavity with water on the tared scale and read the mass.',
+      },
+      { name: 'cavity.waterTempC', label: 'Water temperature', unit: '°C', hint: '0 to 40 °C' },
+    ],
+  },
+};
+
+const ACROSS_OPTIONS = [
+  { value: 'diameter', label: 'Diameter' },
+  { value: 'radius', label: 'Radius' },
+];
+
+/** The numbers of the chosen cavity shape, drawn from its row of `SHAPE_FORMS`. */
+function CavityFields({
+  form,
+  register,
+  err,
+  lengthUnit,
+  cylinderBy,
+  onCylinderBy,
+}: {
+  form: ShapeForm;
+  register: UseFormRegister<PlanRequestInput>;
+  err: (path: string) => string | undefined;
+  lengthUnit: string | undefined;
+  cylinderBy: 'diameter' | 'radius';
+  onCylinderBy: (by: 'diameter' | 'radius') => void;
+}) {
+  const unitSelect = form.unitSelect && (
+    // Keyed by its label: a length unit and a volume unit are different fields to the form.
+    <SelectField
+      key={form.unitSelect.label}
+      label={form.unitSelect.label}
+      options={form.unitSelect.options}
+      error={err('cavity.unit')}
+      {...register('cavity.unit')}
+    />
+  );
+  return (
+    <>
+      <div className={form.grid}>
+        {form.measuredAcross ? (
+          <SelectField
+            label="Measured across"
+            options={ACROSS_OPTIONS}
+            value={cylinderBy}
+            onPick={(by: string) => onCylinderBy(by === 'radius' ? 'radius' : 'diameter')}
+          />
+        ) : null}
+        {form.dimensions
+          .filter((d) => d.across === undefined || d.across === cylinderBy)
+          .map((d) => (
+            <NumberField
+              key={d.name}
+              label={d.label}
+              unit={d.unit === 'length' ? lengthUnit : d.unit}
+              hint={d.hint}
+              error={err(d.name)}
+              {...register(d.name, num)}
+            />
+          ))}
+        {form.unitInGrid ? unitSelect : null}
+      </div>
+      {form.unitInGrid ? null : unitSelect}
+    </>
+  );
 }
 
 const defaults: PlanRequestInput = {
@@ -62,7 +188,7 @@ const defaults: PlanRequestInput = {
   overagePct: 0,
   cupLossG: 0,
   tolerancePct: 1,
-  material: { ratio: { basis: 'weight', parts: [] as unknown as number[] } },
+  material: { ratio: { basis: 'weight', parts: [] } },
 };
 
 export interface VolumeEstimatorProps {
@@ -89,8 +215,8 @@ export function VolumeEstimator({
   onUse,
   tolerancePct,
 }: VolumeEstimatorProps) {
-  const resolver = useMemo<Resolver<PlanRequestInput>>(() => {
-    const base = zodResolver(planRequestSchema) as unknown as Resolver<PlanRequestInput>;
+  const resolver = useMemo<Resolver<PlanRequestInput, unknown, PlanRequest>>(() => {
+    const base = zodResolver(planRequestSchema);
     return (values, context, options) =>
       base(
         {
@@ -108,7 +234,7 @@ export function VolumeEstimator({
     control,
     setValue,
     formState: { errors },
-  } = useForm<PlanRequestInput>({
+  } = useForm<PlanRequestInput, unknown, PlanRequest>({
     defaultValues: defaults,
     resolver,
     mode: 'onChange',
@@ -126,12 +252,13 @@ export function VolumeEstimator({
 
   // Length shapes and a known volume take different units under the same field.
   useEffect(() => {
-    if (shape === 'volume') setValue('cavity.unit' as never, 'in3' as never);
-    else if (shape !== 'water') setValue('cavity.unit' as never, 'in' as never);
+    if (shape === 'volume') setValue('cavity.unit', 'in3');
+    else if (shape !== 'water') setValue('cavity.unit', 'in');
   }, [shape, setValue]);
 
   // A ratio by volume is turned into parts by weight through each part's SG, so ask for those.
   const density: DensityMode = basis === 'volume' ? 'parts' : densityMode;
+  const partIndexes = threeParts ? [0, 1, 2] : [0, 1];
 
   const request = useMemo(
     () => ({
@@ -149,8 +276,8 @@ export function VolumeEstimator({
     onPlan?.(preview.plan);
   }, [preview.plan, onPlan]);
 
-  const err = (path: string) => messageAt(errors, path);
-  const reg = register as unknown as UseFormRegister<Record<string, unknown>>;
+  const err = (path: string): string | undefined =>
+    get<typeof errors, FieldError | undefined>(errors, path)?.message;
   const lengthUnit =
     shape === 'water' || shape === 'volume'
       ? undefined
@@ -169,132 +296,17 @@ export function VolumeEstimator({
           <SelectField
             label="Shape"
             options={SHAPES}
-            registration={reg('cavity.shape')}
             error={err('cavity.shape')}
+            {...register('cavity.shape')}
           />
-          {shape === 'box' ? (
-            <div className="grid gap-4 sm:grid-cols-3">
-              <NumberField
-                label="Length"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.length', num)}
-                error={err('cavity.length')}
-              />
-              <NumberField
-                label="Width"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.width', num)}
-                error={err('cavity.width')}
-              />
-              <NumberField
-                label="Height"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.height', num)}
-                error={err('cavity.height')}
-              />
-            </div>
-          ) : null}
-          {shape === 'cylinder' ? (
-            <div className="grid gap-4 sm:grid-cols-3">
-              <SelectField
-                label="Measured across"
-                options={[
-                  { value: 'diameter', label: 'Diameter' },
-                  { value: 'radius', label: 'Radius' },
-                ]}
-                value={cylinderBy}
-                onChange={(v) => setCylinderBy(v as 'diameter' | 'radius')}
-              />
-              {cylinderBy === 'diameter' ? (
-                <NumberField
-                  key="diameter"
-                  label="Diameter"
-                  unit={lengthUnitLabel}
-                  registration={reg('cavity.diameter', num)}
-                  error={err('cavity.diameter')}
-                />
-              ) : (
-                <NumberField
-                  key="radius"
-                  label="Radius"
-                  unit={lengthUnitLabel}
-                  registration={reg('cavity.radius', num)}
-                  error={err('cavity.radius')}
-                />
-              )}
-              <NumberField
-                label="Height"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.height', num)}
-                error={err('cavity.height')}
-              />
-            </div>
-          ) : null}
-          {shape === 'frustum' ? (
-            <div className="grid gap-4 sm:grid-cols-3">
-              <NumberField
-                label="Top diameter"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.topDiameter', num)}
-                error={err('cavity.topDiameter')}
-              />
-              <NumberField
-                label="Bottom diameter"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.bottomDiameter', num)}
-                error={err('cavity.bottomDiameter')}
-              />
-              <NumberField
-                label="Height"
-                unit={lengthUnitLabel}
-                registration={reg('cavity.height', num)}
-                error={err('cavity.height')}
-              />
-            </div>
-          ) : null}
-          {shape === 'box' || shape === 'cylinder' || shape === 'frustum' ? (
-            <SelectField
-              key="length-unit"
-              label="Length unit"
-              options={LENGTH_OPTIONS}
-              registration={reg('cavity.unit')}
-              error={err('cavity.unit')}
-            />
-          ) : null}
-          {shape === 'volume' ? (
-            <div className="grid gap-4 sm:grid-cols-2">
-              <NumberField
-                label="Volume"
-                registration={reg('cavity.volume', num)}
-                error={err('cavity.volume')}
-              />
-              <SelectField
-                key="volume-unit"
-                label="Volume unit"
-                options={VOLUME_OPTIONS}
-                registration={reg('cavity.unit')}
-                error={err('cavity.unit')}
-              />
-            </div>
-          ) : null}
-          {shape === 'water' ? (
-            <div className="grid gap-4 sm:grid-cols-2">
-              <NumberField
-                label="Water mass"
-                unit="g"
-                hint="Fill the cavity with water on the tared scale and read the mass."
-                registration={reg('cavity.waterMassG', num)}
-                error={err('cavity.waterMassG')}
-              />
-              <NumberField
-                label="Water temperature"
-                unit="°C"
-                hint="0 to 40 °C"
-                registration={reg('cavity.waterTempC', num)}
-                error={err('cavity.waterTempC')}
-              />
-            </div>
-          ) : null}
+          <CavityFields
+            form={SHAPE_FORMS[shape]}
+            register={register}
+            err={err}
+            lengthUnit={lengthUnitLabel}
+            cylinderBy={cylinderBy}
+            onCylinderBy={setCylinderBy}
+          />
         </FieldGroup>
 
         <FieldGroup title="Model and allowances">
@@ -308,13 +320,13 @@ export function VolumeEstimator({
               <NumberField
                 label="Model volume"
                 hint="From CAD, or the water it displaces."
-                registration={reg('displacement.volume', num)}
+                {...register('displacement.volume', num)}
                 error={err('displacement.volume')}
               />
               <SelectField
                 label="Model volume unit"
                 options={VOLUME_OPTIONS}
-                registration={reg('displacement.unit')}
+                {...register('displacement.unit')}
                 error={err('displacement.unit')}
               />
             </div>
@@ -324,14 +336,14 @@ export function VolumeEstimator({
               label="Overage"
               unit="%"
               hint="Added to the net volume: real molds are never perfect shapes."
-              registration={reg('overagePct', num)}
+              {...register('overagePct', num)}
               error={err('overagePct')}
             />
             <NumberField
               label="Cup loss"
               unit="g"
               hint="Left on the walls of the first cup when the mix is moved to the second."
-              registration={reg('cupLossG', num)}
+              {...register('cupLossG', num)}
               error={err('cupLossG')}
             />
           </div>
@@ -346,17 +358,17 @@ export function VolumeEstimator({
                   { value: 'weight', label: 'Parts by weight' },
                   { value: 'volume', label: 'Parts by volume' },
                 ]}
-                registration={reg('material.ratio.basis')}
+                {...register('material.ratio.basis')}
                 error={err('material.ratio.basis')}
               />
               <CheckField label="Three parts" checked={threeParts} onChange={setThreeParts} />
             </div>
             <div className="grid gap-4 sm:grid-cols-3">
-              {PART_NAMES.slice(0, threeParts ? 3 : 2).map((name, i) => (
+              {partIndexes.map((i) => (
                 <NumberField
-                  key={name}
-                  label={`Part ${name}`}
-                  registration={reg(`material.ratio.parts.${i}`, num)}
+                  key={i}
+                  label={`Part ${partLetter(i)}`}
+                  {...register(`material.ratio.parts.${i}`, num)}
                   error={err(`material.ratio.parts.${i}`)}
                 />
               ))}
@@ -373,13 +385,13 @@ export function VolumeEstimator({
               ]}
               value={density}
               disabled={basis === 'volume'}
-              onChange={(v) => setDensityMode(v as DensityMode)}
+              onPick={(v: string) => setDensityMode(v === 'yield' || v === 'parts' ? v : 'sg')}
             />
             {density === 'sg' ? (
               <NumberField
                 label="Specific gravity"
                 hint="From the technical data sheet (water = 1)."
-                registration={reg('material.specificGravity', num)}
+                {...register('material.specificGravity', num)}
                 error={err('material.specificGravity')}
               />
             ) : null}
@@ -387,17 +399,17 @@ export function VolumeEstimator({
               <NumberField
                 label="Yield"
                 unit="in³/lb"
-                registration={reg('material.yieldIn3PerLb', num)}
+                {...register('material.yieldIn3PerLb', num)}
                 error={err('material.yieldIn3PerLb') ?? err('material.specificGravity')}
               />
             ) : null}
             {density === 'parts' ? (
               <div className="grid gap-4 sm:grid-cols-3">
-                {PART_NAMES.slice(0, threeParts ? 3 : 2).map((name, i) => (
+                {partIndexes.map((i) => (
                   <NumberField
-                    key={name}
-                    label={`SG of part ${name}`}
-                    registration={reg(`material.partSpecificGravities.${i}`, num)}
+                    key={i}
+                    label={`SG of part ${partLetter(i)}`}
+                    {...register(`material.partSpecificGravities.${i}`, num)}
                     error={err(`material.partSpecificGravities.${i}`)}
                   />
                 ))}
@@ -417,7 +429,7 @@ export function VolumeEstimator({
               label="Tolerance"
               unit="%"
               hint="Each part is weighed within ± this much."
-              registration={reg('tolerancePct', num)}
+              {...register('tolerancePct', num)}
               error={err('tolerancePct')}
             />
           ) : (
@@ -438,26 +450,26 @@ export function VolumeEstimator({
                     label="Readability"
                     unit="g"
                     hint="The smallest step the display shows."
-                    registration={reg('scale.readabilityG', num)}
+                    {...register('scale.readabilityG', num)}
                     error={err('scale.readabilityG')}
                   />
                   <NumberField
                     label="Repeatability"
                     unit="g"
                     hint="Leave empty if unknown."
-                    registration={reg('scale.repeatabilityG', num)}
+                    {...register('scale.repeatabilityG', num)}
                     error={err('scale.repeatabilityG')}
                   />
                   <NumberField
                     label="Capacity"
                     unit="g"
-                    registration={reg('scale.capacityG', num)}
+                    {...register('scale.capacityG', num)}
                     error={err('scale.capacityG')}
                   />
                   <NumberField
                     label="Cup mass"
                     unit="g"
-                    registration={reg('scale.cupMassG', num)}
+                    {...register('scale.cupMassG', num)}
                     error={err('scale.cupMassG')}
                   />
                 </div>

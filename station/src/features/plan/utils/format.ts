@@ -22,7 +22,7 @@ export function formatNumber(value: number, decimals: number): string {
 }
 
 /** Fewer decimals as numbers grow, so a reading stays short but small masses keep their grams. */
-function decimalsFor(value: number): number {
+function decimalsForMagnitude(value: number): number {
   const magnitude = Math.abs(value);
   if (magnitude < 10) return 2;
   if (magnitude < 10_000) return 1;
@@ -35,12 +35,12 @@ function signed(text: string, sign: '' | '+' | '−'): string {
 
 export function formatVolume(cm3: number, unit: VolumeUnit, sign: '' | '+' | '−' = ''): string {
   const value = unit === 'cm3' ? cm3 : convertVolume({ value: cm3, unit: 'cm3' }, unit).value;
-  return signed(`${formatNumber(value, decimalsFor(value))} ${unitLabel(unit)}`, sign);
+  return signed(`${formatNumber(value, decimalsForMagnitude(value))} ${unitLabel(unit)}`, sign);
 }
 
 export function formatMass(grams: number, unit: MassUnit, sign: '' | '+' | '−' = ''): string {
   const value = unit === 'g' ? grams : convertMass({ value: grams, unit: 'g' }, unit).value;
-  const decimals = unit === 'lb' ? 3 : decimalsFor(value);
+  const decimals = unit === 'lb' ? 3 : decimalsForMagnitude(value);
   return signed(`${formatNumber(value, decimals)} ${unitLabel(unit)}`, sign);
 }
 

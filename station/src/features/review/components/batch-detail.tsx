@@ -1,7 +1,8 @@
 import { Link, useParams } from 'react-router-dom';
 import { useBatch } from '../api/get-batch';
-import { decimalsFor } from '../../../lib/grams';
-import { shownTime, signedPct } from '../utils';
+import { decimalsForReadability } from '../../../lib/grams';
+import { deviationPctText } from '../../../lib/percent';
+import { shownTime } from '../utils';
 import { BatchOutcome } from './batch-outcome';
 import { PourTraceChart } from './pour-trace-chart';
 
@@ -43,7 +44,7 @@ export function BatchDetail() {
     );
   }
   const b = batch.data;
-  const decimals = decimalsFor(b.readabilityG);
+  const decimals = decimalsForReadability(b.readabilityG);
   // By time; steps of the same millisecond (part B done and saved) in the order they happen.
   // The hub's JSON column does not keep key order, so the order comes from STEP_SHOWN.
   // A repeated step is kept by the hub as `name.2`, `name.3`…
@@ -89,8 +90,8 @@ export function BatchDetail() {
         <dd>{b.weightRatio.join(' : ')}</dd>
         <dt className="text-muted">Off ratio</dt>
         <dd>
-          {b.ratioDeviationPct === null ? '\u2013' : signedPct(b.ratioDeviationPct)} (tolerance ±
-          {b.tolerancePct} %)
+          {b.ratioDeviationPct === null ? '\u2013' : deviationPctText(b.ratioDeviationPct)}{' '}
+          (tolerance ±{b.tolerancePct} %)
         </dd>
         <dt className="text-muted">Scale readability</dt>
         <dd>{b.readabilityG} g</dd>

@@ -2,7 +2,8 @@ import { batchStateSchema, type BatchState } from '@tareline/protocol';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { useBatches } from '../api/get-batches';
-import { shownTime, signedPct } from '../utils';
+import { deviationPctText } from '../../../lib/percent';
+import { shownTime } from '../utils';
 import { BatchOutcome } from './batch-outcome';
 
 const STATE_SHOWN: Record<BatchState, string> = {
@@ -71,7 +72,9 @@ export function BatchesPage() {
                 <td>{b.operator.name}</td>
                 <td>{b.benchId}</td>
                 <td>{b.totalMassG} g</td>
-                <td>{b.ratioDeviationPct === null ? '\u2013' : signedPct(b.ratioDeviationPct)}</td>
+                <td>
+                  {b.ratioDeviationPct === null ? '\u2013' : deviationPctText(b.ratioDeviationPct)}
+                </td>
                 <td>
                   <BatchOutcome batch={b} />
                   {!['saved', 'abandoned'].includes(b.state) && (

@@ -1,7 +1,7 @@
 import { useSession } from '../../../lib/auth';
-import { useBenches } from '../api/get-benches';
-import { useLiveBench } from '../hooks/use-live-bench';
-import { Gauge } from './gauge';
+import { useBenches } from '../../../lib/benches';
+import { useLiveBench } from '../../../hooks/use-live-bench';
+import { Gauge } from '../../../components/gauge/gauge';
 
 const TRANSPORT_SHOWN = { serial: 'serial port', tcp: 'network adapter', simulated: 'simulator' };
 

@@ -43,7 +43,7 @@ export function SimulatorPanel({ benchId }: { benchId: string }) {
   const run = useRunSimulator(benchId);
   const form = useForm<z.input<typeof pourFormSchema>, unknown, z.output<typeof pourFormSchema>>({
     resolver: zodResolver(pourFormSchema),
-    defaultValues: { grams: '' as unknown as number },
+    defaultValues: { grams: '' },
   });
   const send = (steps: SimulatorStep[]) => run.mutate(steps);
   const pour = (grams: number, rateGPerS: number) =>

@@ -1,7 +1,9 @@
 import type { Batch } from '@tareline/protocol';
 import { QRCodeSVG } from 'qrcode.react';
-import { formatClock } from '../../utils/pot-life';
-import { gramsText, partName, signedPct } from './format';
+import { formatClock } from '../../../../lib/countdown';
+import { gramsText } from '../../../../lib/grams';
+import { partLetter, partName } from '../../../../lib/parts';
+import { deviationPctText } from '../../../../lib/percent';
 import { VerdictMark } from './verdict-mark';
 
 export interface CupLabelProps {
@@ -22,15 +24,12 @@ export function CupLabel({ batch, url, useBy }: CupLabelProps) {
       partName(i, part.label),
       part.actualG === null ? 'not poured' : gramsText(part.actualG, batch.readabilityG),
     ]),
-    ...batch.lots.map((lot): [string, string] => [
-      `Lot ${'ABC'[lot.part] ?? lot.part + 1}`,
-      lot.code,
-    ]),
+    ...batch.lots.map((lot): [string, string] => [`Lot ${partLetter(lot.part)}`, lot.code]),
     [
       'Ratio',
       batch.ratioDeviationPct === null
         ? 'not judged'
-        : `${signedPct(batch.ratioDeviationPct)} (band ±${batch.tolerancePct}\u00a0%)`,
+        : `${deviationPctText(batch.ratioDeviationPct)} (band ±${batch.tolerancePct}\u00a0%)`,
     ],
     ['Operator', batch.operator.name],
     ['Mixed', batch.savedAt ? formatClock(new Date(batch.savedAt)) : 'not saved'],

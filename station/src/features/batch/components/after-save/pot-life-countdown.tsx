@@ -1,5 +1,6 @@
-import { formatClock, formatCountdown, heavierThanRated, secondsLeft } from '../../utils/pot-life';
-import { gramsText } from './format';
+import { formatClock, formatCountdown } from '../../../../lib/countdown';
+import { gramsText } from '../../../../lib/grams';
+import { heavierThanRated, secondsLeft } from '../../utils/pot-life';
 import { useNow } from './use-now';
 
 export interface PotLifeCountdownProps {

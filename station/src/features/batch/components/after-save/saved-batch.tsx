@@ -1,7 +1,7 @@
 import type { Batch, Material } from '@tareline/protocol';
 import { mixedMassG, potLifeEndsAt } from '../../utils/pot-life';
 import { CupLabel } from './cup-label';
-import { signedPct } from './format';
+import { deviationPctText } from '../../../../lib/percent';
 import { MixingSteps } from './mixing-steps';
 import { PotLifeCountdown } from './pot-life-countdown';
 import { SafetyNotes } from './safety-notes';
@@ -65,7 +65,7 @@ export function SavedBatch({ batch, material }: SavedBatchProps) {
 function VerdictBanner({ batch }: { batch: Batch }) {
   const band = `the ±${batch.tolerancePct} % band`;
   const ratio =
-    batch.ratioDeviationPct === null ? '' : ` · ratio ${signedPct(batch.ratioDeviationPct)}`;
+    batch.ratioDeviationPct === null ? '' : ` · ratio ${deviationPctText(batch.ratioDeviationPct)}`;
   const shown = {
     GO: { fill: 'bg-go', line: `Weighed within ${band}${ratio}` },
     'NO-GO': {

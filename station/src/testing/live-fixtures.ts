@@ -3,7 +3,7 @@ import type { Batch, PourEvent, ReadingEvent } from '@tareline/protocol';
 /**
  * Live events as the hub sends them, for a 100:14 by weight epoxy on bench-1 (the demo shop's
  * SC-14). Targets: 114 g split 100:14 is 100 g and 14 g; the ± 1 % band around 14 g is
- * 13.86–14.14 g (issue 6's worked example).
+ * 13.86–14.14 g (the mix math's worked example).
  */
 export function batchFixture(patch: Partial<Batch> = {}): Batch {
   return {

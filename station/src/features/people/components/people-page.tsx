@@ -21,11 +21,12 @@ import {
   useUpdatePerson,
 } from '../api/people';
 import { useCodeScanner } from '../../../hooks/use-code-scanner';
-import { Field, inputClass } from './field';
+import { SelectField, TextField } from '../../../components/form/field';
 
 const button = 'min-h-11 rounded-lg px-4 font-semibold';
 const primary = `${button} bg-steel text-paper`;
 const secondary = `${button} border-2 border-line bg-panel`;
+const ROLE_OPTIONS = ROLES.map((role) => ({ value: role, label: role }));
 
 /** Puts the hub's field errors on the form's fields; anything else becomes the form's message. */
 function showServerError<T extends FieldValues>(form: UseFormReturn<T>, error: unknown): void {
@@ -135,61 +136,40 @@ function AddPersonForm({ onDone }: { onDone: () => void }) {
           {errors.root.message}
         </p>
       )}
-      <Field id="new-name" label="Name" error={errors.name?.message}>
-        <input
-          id="new-name"
-          className={inputClass}
-          aria-invalid={!!errors.name}
-          {...form.register('name')}
-        />
-      </Field>
-      <Field id="new-role" label="Role" error={errors.role?.message}>
-        <select id="new-role" className={inputClass} {...form.register('role')}>
-          {ROLES.map((r) => (
-            <option key={r} value={r}>
-              {r}
-            </option>
-          ))}
-        </select>
-      </Field>
-      <Field id="new-email" label="E-mail (leads and admins)" error={errors.email?.message}>
-        <input
-          id="new-email"
-          type="email"
-          className={inputClass}
-          aria-invalid={!!errors.email}
-          {...form.register('email')}
-        />
-      </Field>
-      <Field id="new-password" label="Password (leads and admins)" error={errors.password?.message}>
-        <input
-          id="new-password"
-          type="password"
-          autoComplete="new-password"
-          className={inputClass}
-          aria-invalid={!!errors.password}
-          {...form.register('password')}
-        />
-      </Field>
-      <Field id="new-badge" label="Badge code" error={errors.badge?.message}>
-        <input
-          id="new-badge"
-          autoComplete="off"
-          className={inputClass}
-          aria-invalid={!!errors.badge}
-          {...form.register('badge')}
-        />
-      </Field>
-      <Field id="new-pin" label="PIN (optional, 4 to 8 digits)" error={errors.pin?.message}>
-        <input
-          id="new-pin"
-          inputMode="numeric"
-          autoComplete="off"
-          className={inputClass}
-          aria-invalid={!!errors.pin}
-          {...form.register('pin')}
-        />
-      </Field>
+      <TextField label="Name" error={errors.name?.message} {...form.register('name')} />
+      <SelectField
+        label="Role"
+        size="form"
+        error={errors.role?.message}
+        options={ROLE_OPTIONS}
+        {...form.register('role')}
+      />
+      <TextField
+        label="E-mail (leads and admins)"
+        error={errors.email?.message}
+        type="email"
+        {...form.register('email')}
+      />
+      <TextField
+        label="Password (leads and admins)"
+        error={errors.password?.message}
+        type="password"
+        autoComplete="new-password"
+        {...form.register('password')}
+      />
+      <TextField
+        label="Badge code"
+        error={errors.badge?.message}
+        autoComplete="off"
+        {...form.register('badge')}
+      />
+      <TextField
+        label="PIN (optional, 4 to 8 digits)"
+        error={errors.pin?.message}
+        inputMode="numeric"
+        autoComplete="off"
+        {...form.register('pin')}
+      />
       <div className="flex gap-3 md:col-span-2">
         <button type="submit" className={primary} disabled={create.isPending}>
           Save person
@@ -253,32 +233,20 @@ function ManagePerson({ person, onClose }: { person: Person; onClose: () => void
             {errors.root.message}
           </p>
         )}
-        <Field id="edit-name" label="Name" error={errors.name?.message}>
-          <input
-            id="edit-name"
-            className={inputClass}
-            aria-invalid={!!errors.name}
-            {...form.register('name')}
-          />
-        </Field>
-        <Field id="edit-email" label="E-mail" error={errors.email?.message}>
-          <input
-            id="edit-email"
-            type="email"
-            className={inputClass}
-            aria-invalid={!!errors.email}
-            {...form.register('email')}
-          />
-        </Field>
-        <Field id="edit-role" label="Role" error={errors.role?.message}>
-          <select id="edit-role" className={inputClass} {...form.register('role')}>
-            {ROLES.map((r) => (
-              <option key={r} value={r}>
-                {r}
-              </option>
-            ))}
-          </select>
-        </Field>
+        <TextField label="Name" error={errors.name?.message} {...form.register('name')} />
+        <TextField
+          label="E-mail"
+          error={errors.email?.message}
+          type="email"
+          {...form.register('email')}
+        />
+        <SelectField
+          label="Role"
+          size="form"
+          error={errors.role?.message}
+          options={ROLE_OPTIONS}
+          {...form.register('role')}
+        />
         <div className="flex gap-3 md:col-span-3">
           <button type="submit" className={primary} disabled={update.isPending}>
             Save changes
@@ -335,13 +303,10 @@ function AssignBadge({ person, onDone }: { person: Person; onDone: (m: string) =
               void give(typed);
             }}
           >
-            <label htmlFor="assign-badge" className="sr-only">
-              Badge code to assign
-            </label>
-            <input
-              id="assign-badge"
+            <TextField
+              label="Badge code to assign"
+              hideLabel
               autoComplete="off"
-              className={inputClass}
               value={typed}
               onChange={(e) => setTyped(e.target.value)}
             />
@@ -382,7 +347,6 @@ function SecretReset({
   const [value, setValue] = useState('');
   const [error, setError] = useState<string | null>(null);
   const label = kind === 'pin' ? 'New PIN' : 'New password';
-  const id = `reset-${kind}`;
   const save = async (remove = false) => {
     const schema = kind === 'pin' ? pinSchema : passwordSchema;
     const parsed = remove ? { success: true as const, data: null } : schema.safeParse(value);
@@ -413,18 +377,15 @@ function SecretReset({
         void save();
       }}
     >
-      <Field id={id} label={label} error={error ?? undefined}>
-        <input
-          id={id}
-          type="password"
-          autoComplete="new-password"
-          inputMode={kind === 'pin' ? 'numeric' : undefined}
-          className={inputClass}
-          aria-invalid={!!error}
-          value={value}
-          onChange={(e) => setValue(e.target.value)}
-        />
-      </Field>
+      <TextField
+        label={label}
+        error={error ?? undefined}
+        type="password"
+        autoComplete="new-password"
+        inputMode={kind === 'pin' ? 'numeric' : undefined}
+        value={value}
+        onChange={(e) => setValue(e.target.value)}
+      />
       <div className="flex gap-2">
         <button type="submit" className={primary}>
           {kind === 'pin' ? 'Set PIN' : 'Set password'}

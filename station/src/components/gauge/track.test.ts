@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { decimalsFor, formatGrams } from '../../../lib/grams';
-import { trackEndG, trackFraction } from './format-weight';
+import { decimalsForReadability, formatGrams } from '../../lib/grams';
+import { trackEndG, trackFraction } from './track';
 
 describe('gauge number formatting', () => {
   it('shows as many decimals as the scale interval', () => {
-    expect(decimalsFor(0.01)).toBe(2);
-    expect(decimalsFor(0.1)).toBe(1);
-    expect(decimalsFor(1)).toBe(0);
-    expect(decimalsFor(0.005)).toBe(3);
+    expect(decimalsForReadability(0.01)).toBe(2);
+    expect(decimalsForReadability(0.1)).toBe(1);
+    expect(decimalsForReadability(1)).toBe(0);
+    expect(decimalsForReadability(0.005)).toBe(3);
   });
 
   it('prints a true minus and never a negative zero', () => {

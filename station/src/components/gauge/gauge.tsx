@@ -1,9 +1,9 @@
 import type { ReadingEvent, ScaleState, ScaleStatusEvent } from '@tareline/protocol';
 import { useRef, type ReactNode } from 'react';
-import { useEasedScaleX } from '../hooks/use-eased-scale';
-import type { GaugeBand, GaugeVerdict } from '../types';
-import { decimalsFor, formatGrams } from '../../../lib/grams';
-import { trackEndG, trackFraction } from '../utils/format-weight';
+import { useEasedScaleX } from '../../hooks/use-eased-scale';
+import type { GaugeBand, GaugeVerdict } from './types';
+import { decimalsForReadability, formatGrams } from '../../lib/grams';
+import { trackEndG, trackFraction } from './track';
 import { VerdictBadge } from './verdict-badge';
 
 export interface GaugeProps {
@@ -55,7 +55,7 @@ export function Gauge({
   const endG = trackEndG(netG, targetG, band?.highG);
   useEasedScaleX(fillRef, reading && !reading.outOfRange ? trackFraction(netG, endG) : 0);
 
-  const decimals = decimalsFor(readabilityG);
+  const decimals = decimalsForReadability(readabilityG);
   const digits = !reading
     ? '—'
     : reading.outOfRange === 'overload'

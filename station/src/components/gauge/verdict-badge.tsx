@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { GaugeVerdict } from '../types';
+import type { GaugeVerdict } from './types';
 
 const SHOWN: Record<
   GaugeVerdict,

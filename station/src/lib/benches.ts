@@ -1,6 +1,6 @@
 import { benchListSchema, type BenchSummary } from '@tareline/protocol';
 import { useQuery } from '@tanstack/react-query';
-import { apiRequest } from '../../../lib/api-client';
+import { apiRequest } from './api-client';
 
 export const benchesQueryKey = ['benches'] as const;
 
