@@ -1,36 +1,46 @@
 import { z } from 'zod';
 import { roleSchema } from './roles.js';
 import { benchIdSchema } from './benches.js';
+import { recordIdSchema, text, textChecks } from './text.js';
 
 /**
- * A badge code as the reader types it. Readers send printable ASCII; surrounding spaces are a
- * reader artefact, so they are trimmed before the code is hashed.
+ * A badge code as the reader types it. Readers send printable ASCII; surrounding spaces (and the
+ * Enter or Tab a reader may end with) are a reader artefact, so they are trimmed before the code
+ * is checked and hashed.
  */
 export const badgeCodeSchema = z
   .string({ error: 'Scan a badge or type its code' })
   .trim()
-  .min(4, 'A badge code has at least 4 characters')
-  .max(64, 'A badge code has at most 64 characters')
-  .regex(/^[\x21-\x7e]+$/, 'A badge code has only letters, digits and symbols, no spaces');
+  .pipe(
+    text()
+      .min(4, 'A badge code has at least 4 characters')
+      .max(64, 'A badge code has at most 64 characters')
+      .regex(/^[\x21-\x7e]+$/, 'A badge code has only letters, digits and symbols, no spaces'),
+  );
 
 /** A PIN typed on the bench's pad: digits only, short enough for gloves. */
-export const pinSchema = z
-  .string({ error: 'Enter a PIN' })
-  .regex(/^\d{4,8}$/, 'A PIN is 4 to 8 digits');
+export const pinSchema = text({ error: 'Enter a PIN' }).regex(
+  /^\d{4,8}$/,
+  'A PIN is 4 to 8 digits',
+);
 
-export const passwordSchema = z
-  .string({ error: 'Enter a password' })
+export const passwordSchema = text({ error: 'Enter a password' })
   .min(10, 'A password has at least 10 characters')
   .max(200, 'A password has at most 200 characters');
 
+/** Trimmed first: a pasted address often brings a space or a line break along. */
 export const emailSchema = z
   .string({ error: 'Enter an e-mail address' })
   .trim()
   .toLowerCase()
-  .pipe(z.email('Enter a valid e-mail address').max(254));
+  .pipe(
+    z
+      .email('Enter a valid e-mail address')
+      .max(254)
+      .check(...textChecks()),
+  );
 
-export const personNameSchema = z
-  .string({ error: 'Enter a name' })
+export const personNameSchema = text({ error: 'Enter a name' })
   .trim()
   .min(1, 'Enter a name')
   .max(100, 'A name has at most 100 characters');
@@ -46,7 +56,7 @@ export type BadgeSignInRequest = z.infer<typeof badgeSignInRequestSchema>;
 /** `POST /api/auth/login`: a lead or admin at a desk. */
 export const loginRequestSchema = z.object({
   email: emailSchema,
-  password: z.string({ error: 'Enter your password' }).min(1, 'Enter your password').max(200),
+  password: text({ error: 'Enter your password' }).min(1, 'Enter your password').max(200),
 });
 export type LoginRequest = z.infer<typeof loginRequestSchema>;
 
@@ -100,6 +110,9 @@ export function isPinNeeded(error: { errors: readonly { path: string }[] }): boo
 // ---------------------------------------------------------------------------------------------
 // People (admins)
 
+/** Path parameter of the people routes. */
+export const personIdSchema = recordIdSchema('person');
+
 /** A person as the people page lists them; secrets never leave the hub, only whether they exist. */
 export const personSchema = z.object({
   id: z.string(),
@@ -147,7 +160,10 @@ export type CreatePersonRequest = z.input<typeof createPersonRequestSchema>;
 export const updatePersonRequestSchema = z
   .object({
     name: personNameSchema.optional(),
-    email: z.union([z.literal('').transform(() => null), z.null(), emailSchema]).optional(),
+    email: z
+      .union([z.literal('').transform(() => null), emailSchema])
+      .nullable()
+      .optional(),
     role: roleSchema.optional(),
     active: z.boolean().optional(),
   })

@@ -1,7 +1,9 @@
 import { z } from 'zod';
-import { lotWarningSchema } from './materials.js';
+import { benchIdSchema } from './benches.js';
+import { lotWarningSchema, materialIdSchema } from './materials.js';
 import { roleSchema } from './roles.js';
 import { positiveMeasure } from './mix/cavity.js';
+import { text } from './text.js';
 
 /** A batch number as it appears in an address: PostgreSQL `integer` ids, 1 to 2³¹ − 1. */
 export const batchNumberSchema = z.coerce
@@ -29,8 +31,8 @@ export const pourVerdictSchema = z.enum(['UNDER', 'SETTLING', 'GO', 'OVER']);
 
 /** Body of `POST /api/batches`. */
 export const createBatchSchema = z.object({
-  benchId: z.string({ error: 'Choose the bench' }).min(1, { error: 'Choose the bench' }),
-  materialId: z.string({ error: 'Choose the material' }).min(1, { error: 'Choose the material' }),
+  benchId: benchIdSchema,
+  materialId: materialIdSchema,
   totalMassG: positiveMeasure('total mass').max(100_000, {
     error: 'A batch above 100 kg is surely a typing mistake',
   }),
@@ -39,7 +41,7 @@ export const createBatchSchema = z.object({
     .array(
       z.object({
         part: z.number().int().min(0).max(2),
-        code: z.string().trim().min(1, { error: 'Scan or enter the lot code' }).max(80),
+        code: text().trim().min(1, { error: 'Scan or enter the lot code' }).max(80),
       }),
     )
     .max(3)
@@ -48,11 +50,22 @@ export const createBatchSchema = z.object({
 export type CreateBatch = z.input<typeof createBatchSchema>;
 
 export const abandonBatchSchema = z.object({
-  reason: z
-    .string({ error: 'Say why the batch is abandoned' })
+  reason: text({ error: 'Say why the batch is abandoned', multiline: true })
     .trim()
     .min(3, { error: 'Say why the batch is abandoned' })
     .max(500),
+});
+
+/** Query of `GET /api/batches`: the latest batches, of one bench or in one state if asked. */
+export const batchListQuerySchema = z.object({
+  benchId: benchIdSchema.optional(),
+  state: batchStateSchema.optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(50),
+});
+
+/** Query of `GET /api/batches/current`: the bench whose open batch is asked for. */
+export const currentBatchQuerySchema = z.object({
+  benchId: benchIdSchema,
 });
 
 export const batchPartSchema = z.object({

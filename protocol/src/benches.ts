@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { scaleTransportSchema } from './scale-link.js';
 import { scaleStatusEventSchema } from './scale/types.js';
+import { text } from './text.js';
 
 /** A bench's scale as `GET /api/benches` lists it: its live state and what the hub knows of it. */
 export const benchScaleSchema = scaleStatusEventSchema.extend({
@@ -25,8 +26,7 @@ export type BenchSummary = z.infer<typeof benchSummarySchema>;
 export const benchListSchema = z.array(benchSummarySchema);
 
 /** Path parameter of the bench routes. */
-export const benchIdSchema = z
-  .string({ error: 'Say which bench this is' })
+export const benchIdSchema = text({ error: 'Say which bench this is' })
   .trim()
   .regex(
     /^[a-z0-9][a-z0-9-]{0,39}$/,

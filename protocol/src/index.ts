@@ -1,5 +1,6 @@
 export * from './health.js';
 export * from './errors.js';
+export * from './text.js';
 export * from './roles.js';
 export * from './live.js';
 export * from './scale/index.js';

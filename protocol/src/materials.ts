@@ -2,21 +2,24 @@ import { z } from 'zod';
 import { measure, positiveMeasure } from './mix/cavity.js';
 import { planMaterialSchema } from './mix/plan.js';
 import { DEFAULT_TOLERANCE_PCT } from './mix/targets.js';
+import { recordIdSchema, text } from './text.js';
 
 const isoDate = z.iso.date({ error: 'Use a date like 2027-03-31' });
+
+/** Path parameter of `GET /api/materials/:id`, and the material a lot or batch names. */
+export const materialIdSchema = recordIdSchema('material', 'Choose the material');
 
 /**
  * A two-part (or three-part) material system as a lead enters it from the maker's data sheet:
  * its ratio and density (as the pour plan takes them) plus what the bench needs around a pour.
  */
 export const materialInputSchema = planMaterialSchema.safeExtend({
-  name: z
-    .string({ error: 'Enter a name' })
+  name: text({ error: 'Enter a name' })
     .trim()
     .min(1, { error: 'Enter a name' })
     .max(120, { error: 'Keep the name under 120 characters' }),
   /** What the bench calls each part, part A first (e.g. "Resin", "Hardener"). */
-  partLabels: z.array(z.string().trim().min(1).max(40)).min(2).max(3).optional(),
+  partLabels: z.array(text().trim().min(1).max(40)).min(2).max(3).optional(),
   tolerancePct: positiveMeasure('tolerance')
     .max(50, { error: 'The tolerance must be 50 % or less' })
     .default(DEFAULT_TOLERANCE_PCT),
@@ -32,9 +35,9 @@ export const materialInputSchema = planMaterialSchema.safeExtend({
     .max(120)
     .default(0),
   /** Cautions to show before weighing, in the material's own words (from its SDS). */
-  cautions: z.array(z.string().trim().min(1).max(300)).max(20).default([]),
+  cautions: z.array(text().trim().min(1).max(300)).max(20).default([]),
   /** Where its safety data sheet is: a URL or a document number in the shop's binder. */
-  sdsRef: z.string().trim().max(500).optional(),
+  sdsRef: text().trim().max(500).optional(),
   /** Days a container may stay open before its lot warns (common practice, no published source). */
   openShelfLifeDays: z.number().int().positive().max(3650).optional(),
 });
@@ -62,11 +65,10 @@ export const materialSchema = z.object({
 export type Material = z.infer<typeof materialSchema>;
 
 export const lotInputSchema = z.object({
-  materialId: z.string({ error: 'Choose the material' }).min(1, { error: 'Choose the material' }),
+  materialId: materialIdSchema,
   /** 0 = part A, 1 = part B, 2 = part C. */
   part: z.number().int().min(0).max(2, { error: 'A material has at most three parts' }),
-  code: z
-    .string({ error: 'Enter the lot code from the label' })
+  code: text({ error: 'Enter the lot code from the label' })
     .trim()
     .min(1, { error: 'Enter the lot code from the label' })
     .max(80),
@@ -74,6 +76,9 @@ export const lotInputSchema = z.object({
   openedOn: isoDate.optional(),
 });
 export type LotInput = z.input<typeof lotInputSchema>;
+
+/** Query of `GET /api/lots`: every lot, or one material's. */
+export const lotListQuerySchema = z.object({ materialId: materialIdSchema.optional() });
 
 export const lotWarningSchema = z.object({
   code: z.enum(['LOT_EXPIRED', 'LOT_LONG_OPEN', 'LOT_UNKNOWN', 'LOT_WRONG_PART']),

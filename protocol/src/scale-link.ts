@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { scaleFormatSettingSchema, scaleUnitSchema } from './scale/types.js';
+import { text } from './text.js';
 
 /**
  * How the hub reaches a bench's scale, written as a URL so it fits in one setting
@@ -43,7 +44,7 @@ const commonParams = {
 
 export const serialLinkSchema = z.object({
   transport: z.literal('serial'),
-  path: z.string().min(1, 'a serial port path is required, e.g. serial:///dev/ttyUSB0'),
+  path: text().min(1, 'a serial port path is required, e.g. serial:///dev/ttyUSB0'),
   baudRate: numberParam('baud')
     .pipe(
       z
@@ -70,7 +71,7 @@ export const serialLinkSchema = z.object({
 
 export const tcpLinkSchema = z.object({
   transport: z.literal('tcp'),
-  host: z.string().min(1, 'a host is required, e.g. tcp://192.168.1.50:4001'),
+  host: text().min(1, 'a host is required, e.g. tcp://192.168.1.50:4001'),
   port: numberParam('port').pipe(
     z
       .number()

@@ -1,11 +1,16 @@
 import { Body, Controller, Get, Inject, Param, Post, Query } from '@nestjs/common';
-import { lotInputSchema, materialInputSchema, type Lot, type Material } from '@tareline/protocol';
-import { z } from 'zod';
+import {
+  lotInputSchema,
+  lotListQuerySchema,
+  materialIdSchema,
+  materialInputSchema,
+  type Lot,
+  type Material,
+} from '@tareline/protocol';
+import type { z } from 'zod';
 import { Roles } from '../auth/access.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { MaterialsService } from './materials.service.js';
-
-const lotQuerySchema = z.object({ materialId: z.string().min(1).optional() });
 
 @Controller()
 export class MaterialsController {
@@ -19,7 +24,9 @@ export class MaterialsController {
 
   @Get('materials/:id')
   @Roles('operator', 'lead', 'admin')
-  get(@Param('id') id: string): Promise<Material> {
+  get(
+    @Param('id', new ZodValidationPipe(materialIdSchema, 'Not a material id')) id: string,
+  ): Promise<Material> {
     return this.materials.get(id);
   }
 
@@ -35,7 +42,7 @@ export class MaterialsController {
   @Get('lots')
   @Roles('operator', 'lead', 'admin')
   lots(
-    @Query(new ZodValidationPipe(lotQuerySchema)) query: z.output<typeof lotQuerySchema>,
+    @Query(new ZodValidationPipe(lotListQuerySchema)) query: z.output<typeof lotListQuerySchema>,
   ): Promise<Lot[]> {
     return this.materials.listLots(query.materialId);
   }

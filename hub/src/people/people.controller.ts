@@ -2,6 +2,7 @@ import { Body, Controller, Get, HttpCode, Inject, Param, Patch, Post, Put } from
 import {
   assignBadgeRequestSchema,
   createPersonRequestSchema,
+  personIdSchema,
   setPasswordRequestSchema,
   setPinRequestSchema,
   updatePersonRequestSchema,
@@ -16,6 +17,8 @@ import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { PeopleService } from './people.service.js';
+
+const personId = new ZodValidationPipe(personIdSchema, 'Not a person id');
 
 @Controller('people')
 @Roles('admin')
@@ -37,7 +40,7 @@ export class PeopleController {
 
   @Patch(':id')
   update(
-    @Param('id') id: string,
+    @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(updatePersonRequestSchema))
     body: z.output<typeof updatePersonRequestSchema>,
     @CurrentUser() actor: AuthUser,
@@ -48,7 +51,7 @@ export class PeopleController {
   @Put(':id/badge')
   @HttpCode(200)
   assignBadge(
-    @Param('id') id: string,
+    @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(assignBadgeRequestSchema)) body: AssignBadgeRequest,
   ): Promise<Person> {
     return this.people.assignBadge(id, body.badge);
@@ -57,7 +60,7 @@ export class PeopleController {
   @Put(':id/pin')
   @HttpCode(200)
   setPin(
-    @Param('id') id: string,
+    @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(setPinRequestSchema)) body: SetPinRequest,
   ): Promise<Person> {
     return this.people.setPin(id, body.pin);
@@ -66,7 +69,7 @@ export class PeopleController {
   @Put(':id/password')
   @HttpCode(200)
   setPassword(
-    @Param('id') id: string,
+    @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(setPasswordRequestSchema)) body: SetPasswordRequest,
   ): Promise<Person> {
     return this.people.setPassword(id, body.password);

@@ -152,10 +152,19 @@ async function until(what: string, check: () => boolean, timeoutMs = 3_000): Pro
 
 const stateIs = (link: ScaleLink, state: ScaleState) => () => link.status().state === state;
 
+/**
+ * Waits for the hub's `opened`-th opening of the port and prints what a balance that was
+ * mid-line prints first: the tail of a line, which the link must drop.
+ */
+async function openedMidLine(scale: MockScale, opened = 1): Promise<void> {
+  await until('the port to open', () => scale.ports.length === opened && scale.port.isOpen);
+  scale.send('.00  g\r\n');
+}
+
 describe('ScaleLink over the mock serial binding', () => {
   it('turns lines split across chunks into readings, in order, and goes online', async () => {
     const { link, scale, readings } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     expect(link.status().state).toBe('connecting');
     // One line cut in three, then two lines in one chunk; CR LF split across chunks too.
     scale.send('ST,GS,+00');
@@ -191,7 +200,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it('reports overload as an out-of-range reading', async () => {
     const { scale, readings } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('headered', { grams: 100 });
     scale.print('headered', { grams: 0, overload: true });
     await until('two readings', () => readings.length === 2);
@@ -200,7 +209,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it("tares through the scale's own command and keeps gross and net apart", async () => {
     const { link, scale, readings } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('headered', { grams: 40 });
     await until('online', stateIs(link, 'online'));
     const tared = link.tare();
@@ -216,7 +225,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it('tares an echo-family scale with its command and takes the tare value from its reply', async () => {
     const { link, scale, readings } = startLink('serial://PATH?format=echo');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('echo', { grams: 40 });
     await until('online', stateIs(link, 'online'));
     const tared = link.tare();
@@ -240,7 +249,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it('keeps a software tare for a scale without commands and writes nothing to it', async () => {
     const { link, scale, readings } = startLink('serial://PATH?format=plain');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('plain', { grams: 38.4 });
     await until('online', stateIs(link, 'online'));
     const tared = link.tare();
@@ -254,7 +263,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it('falls back to a software tare when the scale refuses the command', async () => {
     const { link, scale, readings } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('headered', { grams: 25 });
     await until('online', stateIs(link, 'online'));
     const tared = link.tare();
@@ -275,7 +284,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it('goes stale when lines stop and online again when they resume', async () => {
     const { link, scale } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('headered', { grams: 10 });
     await until('online', stateIs(link, 'online'));
     await until('stale', stateIs(link, 'stale'), 2_000);
@@ -286,7 +295,7 @@ describe('ScaleLink over the mock serial binding', () => {
 
   it('goes offline when unplugged, keeps trying, and is back online after replugging', async () => {
     const { link, scale, states } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('headered', { grams: 10 });
     await until('online', stateIs(link, 'online'));
     scale.unplug();
@@ -297,7 +306,7 @@ describe('ScaleLink over the mock serial binding', () => {
     expect(link.status().state).toBe('offline');
     expect(link.status().detail).toMatch(/No such file/);
     scale.plugged = true;
-    await until('the port to reopen', () => scale.ports.length === 2 && scale.port.isOpen);
+    await openedMidLine(scale, 2);
     scale.print('headered', { grams: 11 });
     await until('online again', stateIs(link, 'online'));
     const seen = states.map((s) => s.state);
@@ -312,26 +321,83 @@ describe('ScaleLink over the mock serial binding', () => {
     const { link, scale } = startLink('serial://PATH?format=headered', new MockScale(), {
       vanishing: true,
     });
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     scale.print('headered', { grams: 10 });
     await until('online', stateIs(link, 'online'));
     scale.plugged = false;
     await until('offline', stateIs(link, 'offline'), 3_000);
     expect(link.status().detail).toMatch(/port has gone|No such file/);
     scale.plugged = true;
-    await until('the port to reopen', () => scale.ports.length === 2 && scale.port.isOpen);
+    await openedMidLine(scale, 2);
     scale.print('headered', { grams: 11 });
     await until('online again', stateIs(link, 'online'));
   });
 
   it('reports an error for lines it cannot read (wrong baud rate) and recovers', async () => {
     const { link, scale } = startLink('serial://PATH?format=headered');
-    await until('the port to open', () => scale.ports.length === 1);
+    await openedMidLine(scale);
     for (let i = 0; i < 10; i += 1) scale.send('\u00f8\u00e5\u0012#\u00ff\r\n');
     await until('error', stateIs(link, 'error'));
     expect(link.status().detail).toMatch(/not headered lines.*baud rate/);
     scale.print('headered', { grams: 3 });
     await until('online', stateIs(link, 'online'));
+  });
+
+  it('never reads the cut first line after opening, and recognises the format from the whole lines', async () => {
+    const { link, scale, readings } = startLink('serial://PATH?format=auto');
+    await until('the port to open', () => scale.ports.length === 1);
+    // Opened in the middle of `ST,GS,+00123.45  g`: the tail alone reads as a plain 3.45 g.
+    scale.send('3.45  g\r\n');
+    for (let i = 0; i < 4; i += 1) scale.print('headered', { grams: 123.45 });
+    await until('online', stateIs(link, 'online'));
+    await until('readings', () => readings.length > 0);
+    expect(link.status().detail).toMatch(/headered lines \(recognised\)/);
+    expect(readings.map((r) => r.grossG)).not.toContain(3.45);
+    expect(readings.every((r) => r.grossG === 123.45)).toBe(true);
+  });
+
+  it('drops the cut first line with a fixed format too, after every reopening', async () => {
+    const { link, scale, readings } = startLink('serial://PATH?format=plain');
+    await until('the port to open', () => scale.ports.length === 1);
+    // The tail of `+    123.45 g` is itself a plain line of 23.45 g.
+    scale.send('23.45 g\r\n');
+    scale.print('plain', { grams: 123.45 });
+    await until('online', stateIs(link, 'online'));
+    scale.unplug();
+    await until('offline', stateIs(link, 'offline'));
+    scale.plugged = true;
+    await until('the port to reopen', () => scale.ports.length === 2 && scale.port.isOpen);
+    scale.send('3.45 g\r\n');
+    scale.print('plain', { grams: 123.45 });
+    await until('online again', stateIs(link, 'online'));
+    expect(readings.map((r) => r.grossG)).toEqual([123.45, 123.45]);
+  });
+
+  it('recognises the format once good lines follow a long run of unreadable ones', async () => {
+    const { link, scale, readings } = startLink('serial://PATH?format=auto');
+    await until('the port to open', () => scale.ports.length === 1);
+    for (let i = 0; i < 30; i += 1) scale.send('\u00f8\u00e5\u0012#\u00ff\r\n');
+    await until('error', stateIs(link, 'error'));
+    expect(link.status().detail).toMatch(/none in a known format/);
+    for (let i = 0; i < 3; i += 1) scale.print('echo', { grams: 12.5 });
+    await until('online', stateIs(link, 'online'));
+    await until('a reading', () => readings.length > 0);
+    expect(readings.map((r) => r.grossG)).toEqual([12.5, 12.5]);
+  });
+
+  it('follows the balance to another format without reopening the port', async () => {
+    // A balance whose print format is changed at its keypad, or a first guess that was wrong.
+    const { link, scale, readings } = startLink('serial://PATH?format=auto');
+    await until('the port to open', () => scale.ports.length === 1);
+    for (let i = 0; i < 3; i += 1) scale.print('plain', { grams: 10 });
+    await until('online', stateIs(link, 'online'));
+    for (let i = 0; i < 12; i += 1) scale.print('headered', { grams: 20 });
+    await until('a headered reading', () => readings.at(-1)?.grossG === 20);
+    expect(link.status()).toMatchObject({
+      state: 'online',
+      detail: expect.stringMatching(/headered lines \(recognised\)/),
+    });
+    expect(scale.ports).toHaveLength(1);
   });
 
   it('releases the port when stopped', async () => {

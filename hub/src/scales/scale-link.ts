@@ -1,5 +1,6 @@
 import { Logger } from '@nestjs/common';
 import {
+  CONFIRMING_LINES,
   detectFormat,
   getCodec,
   GRAMS_PER_UNIT,
@@ -93,7 +94,11 @@ export class ScaleLink {
   private attempt = 0;
 
   private codec: ScaleCodec | undefined;
-  private detectBuffer: string[] = [];
+  /** Set on every opening: the first line may be the tail of one the port was opened into. */
+  private dropNextLine = false;
+  /** `auto`: the latest lines, to recognise the family and to notice when it changes. */
+  private recentLines: string[] = [];
+  private unrecognisedLines = 0;
   private unreadableStreak = 0;
   private detectedReadabilityG: number | undefined;
   private stability: StabilityWindow | undefined;
@@ -241,7 +246,9 @@ export class ScaleLink {
   private read(connection: ScaleConnection): Promise<string> {
     this.connection = connection;
     this.codec = this.settings.format === 'auto' ? undefined : getCodec(this.settings.format);
-    this.detectBuffer = [];
+    this.dropNextLine = true;
+    this.recentLines = [];
+    this.unrecognisedLines = 0;
     this.unreadableStreak = 0;
     this.stability = undefined;
     this.setState(
@@ -319,7 +326,13 @@ export class ScaleLink {
   private handleLine(raw: string): void {
     const t = Date.now();
     this.armStaleTimer();
-    if (!this.codec && !this.recognise(raw)) return;
+    if (this.dropNextLine) {
+      // Opening a port mid-line gives the tail of a line, and a tail can read as a smaller
+      // weight (`23.45 g` from `+    123.45 g`): never trust the first line.
+      this.dropNextLine = false;
+      return;
+    }
+    if (this.settings.format === 'auto' && !this.recognise(raw)) return;
     const line = this.codec!.parse(raw);
     if (line.kind === 'unreadable') {
       this.unreadableStreak += 1;
@@ -333,14 +346,12 @@ export class ScaleLink {
       return;
     }
     this.unreadableStreak = 0;
-    if (this.current.state !== 'online') {
-      this.attempt = 0;
-      this.setState(
-        'online',
-        `${this.transport.description}, ${this.codec!.format} lines` +
-          (this.settings.format === 'auto' ? ' (recognised)' : ''),
-      );
-    }
+    if (this.current.state !== 'online') this.attempt = 0;
+    this.setState(
+      'online',
+      `${this.transport.description}, ${this.codec!.format} lines` +
+        (this.settings.format === 'auto' ? ' (recognised)' : ''),
+    );
     switch (line.kind) {
       case 'weight':
         if (line.tare) {
@@ -371,18 +382,31 @@ export class ScaleLink {
     }
   }
 
-  /** Auto format: gathers lines until protocol recognises the family. */
+  /**
+   * Auto format: whether `raw` is to be read with {@link codec}. Until protocol confirms a family
+   * nothing is read; afterwards every line the family does not read is a reason to look again,
+   * so a wrong start (or a balance switched to another format) does not hold the link in error.
+   */
   private recognise(raw: string): boolean {
-    this.detectBuffer.push(raw);
-    if (this.detectBuffer.length > this.timings.detectLines) this.detectBuffer.shift();
-    const format = detectFormat(this.detectBuffer);
-    if (format) {
+    this.recentLines.push(raw);
+    if (this.recentLines.length > CONFIRMING_LINES) this.recentLines.shift();
+    if (this.codec && this.codec.parse(raw).kind !== 'unreadable') return true;
+    const format = detectFormat(this.recentLines);
+    if (format && format !== this.codec?.format) {
+      if (this.codec) this.logger.warn(`the lines changed from ${this.codec.format} to ${format}`);
+      else this.logger.log(`recognised ${format} lines`);
       this.codec = getCodec(format);
-      this.logger.log(`recognised ${format} lines`);
-      this.detectBuffer = [];
+      // What the other family's lines said about tare and stability means nothing now.
+      this.stability = undefined;
+      this.scaleTareG = 0;
+      this.grossAtTareCommandG = undefined;
+      this.unrecognisedLines = 0;
       return true;
     }
-    if (this.detectBuffer.length === this.timings.detectLines && this.current.state !== 'error') {
+    // A family is known: its unreadable lines count towards the link's error as usual.
+    if (this.codec) return true;
+    this.unrecognisedLines += 1;
+    if (this.unrecognisedLines === this.timings.detectLines) {
       this.setState(
         'error',
         `${this.timings.detectLines} lines and none in a known format, e.g. ` +

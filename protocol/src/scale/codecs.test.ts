@@ -257,6 +257,20 @@ describe('detectFormat', () => {
     expect(detectFormat(['x', 'y', 'z', '+    1.00 g'])).toBeUndefined();
   });
 
+  it('never decides on one line, so the cut first line after opening a port cannot pick the family', () => {
+    // The tail of a headered line reads as a plain weight of 3.45 g on its own.
+    expect(getCodec('plain').parse('3.45  g').kind).toBe('weight');
+    expect(detectFormat(['3.45  g'])).toBeUndefined();
+    expect(detectFormat(['3.45  g', 'ST,GS,+00123.45  g'])).toBeUndefined();
+    expect(detectFormat(['3.45  g', 'ST,GS,+00123.45  g', 'ST,GS,+00123.45  g'])).toBe('headered');
+  });
+
+  it('recognises the family as soon as two good lines follow a burst of noise', () => {
+    const noise = Array.from({ length: 20 }, (_, i) => `\u00f8\u00e5#${i}\u00ff`);
+    expect(detectFormat(noise)).toBeUndefined();
+    expect(detectFormat([...noise, 'S S     123.45 g', 'S D     123.47 g'])).toBe('echo');
+  });
+
   it('recognises an echo balance from its answers to commands', () => {
     expect(detectFormat(['S S      0.00 g', 'Z A'])).toBe('echo');
   });

@@ -13,22 +13,24 @@ export function getCodec(format: ScaleFormat): ScaleCodec {
   return CODECS[format];
 }
 
+/** Lines in a row one family must read before `auto` trusts it. */
+export const CONFIRMING_LINES = 2;
+
 /**
- * Recognise a balance's family from the first lines it printed (`auto` mode). Each family's
- * parser is strict enough that it does not read the others' lines, so the family that reads the
- * most lines wins — when it reads at least one, reads more than any other, and reads at least
- * half of the non-blank lines (the first line is often cut in half by opening the port mid-line).
- * `undefined` means "not yet": feed more lines.
+ * Recognise a balance's family from the latest lines it printed (`auto` mode): the one family
+ * whose strict parser reads each of the last {@link CONFIRMING_LINES} non-blank lines. A single
+ * line never decides, because the first line after opening a port is often the tail of a line,
+ * which another family can read as a smaller weight (`3.45  g` from `ST,GS,+00123.45  g`).
+ * Earlier lines do not count, so after a burst of noise (a wrong baud rate, a cable moved) the
+ * family is recognised as soon as two good lines come. `undefined` means "not yet": feed more.
  */
 export function detectFormat(lines: readonly string[]): ScaleFormat | undefined {
-  const nonBlank = lines.filter((line) => typeof line === 'string' && line.trim() !== '');
-  if (nonBlank.length === 0) return undefined;
-  const scores = (Object.keys(CODECS) as ScaleFormat[]).map((format) => ({
-    format,
-    read: nonBlank.filter((line) => CODECS[format].parse(line).kind !== 'unreadable').length,
-  }));
-  scores.sort((a, b) => b.read - a.read);
-  const [best, second] = scores;
-  if (!best || best.read === 0 || best.read === second?.read) return undefined;
-  return best.read * 2 >= nonBlank.length ? best.format : undefined;
+  const latest = lines
+    .filter((line) => typeof line === 'string' && line.trim() !== '')
+    .slice(-CONFIRMING_LINES);
+  if (latest.length < CONFIRMING_LINES) return undefined;
+  const readers = (Object.keys(CODECS) as ScaleFormat[]).filter((format) =>
+    latest.every((line) => CODECS[format].parse(line).kind !== 'unreadable'),
+  );
+  return readers.length === 1 ? readers[0] : undefined;
 }
