@@ -27,7 +27,7 @@ const SC14 = {
 
 const materials = {
   get: async (id: string) => {
-    if (id !== SC14.id) throw new Error('no such material');
+    if (id !== SC14.id) throw new NotFound(`No material ${id}`);
     return SC14;
   },
   findLot: async () => undefined,

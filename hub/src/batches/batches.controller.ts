@@ -10,9 +10,10 @@ import {
 } from '@nestjs/common';
 import {
   abandonBatchSchema,
+  batchListQuerySchema,
   batchNumberSchema,
-  batchStateSchema,
   createBatchSchema,
+  currentBatchQuerySchema,
   type Batch,
 } from '@tareline/protocol';
 import { z } from 'zod';
@@ -23,14 +24,8 @@ import { InvalidInput } from '../common/domain-errors.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { BatchesService } from './batches.service.js';
 
-const listQuerySchema = z.object({
-  benchId: z.string().min(1).optional(),
-  state: batchStateSchema.optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(50),
-});
-const currentQuerySchema = z.object({
-  benchId: z.string({ error: 'Name the bench' }).min(1, { error: 'Name the bench' }),
-});
+const listQuerySchema = batchListQuerySchema;
+const currentQuerySchema = currentBatchQuerySchema;
 /** The `:id` of a batch route; a bad one is a 400 naming `id`, never a database error. */
 class BatchNumberPipe implements PipeTransform<unknown, number> {
   transform(value: unknown): number {

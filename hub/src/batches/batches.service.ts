@@ -93,7 +93,9 @@ export class BatchesService {
         `Batch ${busy.id} is still open on this bench: finish or abandon it first`,
       );
     }
-    const material = await this.materials.get(input.materialId).catch(() => {
+    const material = await this.materials.get(input.materialId).catch((err: unknown) => {
+      // Only a material that is not there is the operator's to fix; an outage stays an outage.
+      if (!(err instanceof NotFound)) throw err;
       throw new NotFound(`No material ${input.materialId}`, [
         { path: 'materialId', message: 'Choose a material from the list' },
       ]);
