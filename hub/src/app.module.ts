@@ -2,6 +2,7 @@ import { DynamicModule, Module } from '@nestjs/common';
 import { ServeStaticModule } from '@nestjs/serve-static';
 import type { AppConfig } from './config/app-config.js';
 import { AuthModule } from './auth/auth.module.js';
+import { BackupModule } from './backup/backup.module.js';
 import { ConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { DemoModule } from './demo/demo.module.js';
@@ -34,6 +35,7 @@ export class AppModule {
         PeopleModule,
         DemoModule,
         BatchesModule,
+        BackupModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({
           rootPath: config.paths.station,

@@ -45,6 +45,8 @@ const EXPECTED: Record<string, 'public' | readonly Role[]> = {
   'POST /api/batches/:id/save-no-go': EVERYONE_SIGNED_IN,
   'POST /api/batches/:id/abandon': EVERYONE_SIGNED_IN,
   'POST /api/batches/:id/resume': EVERYONE_SIGNED_IN,
+  // A copy of every record, hashes included.
+  'GET /api/backup': ['admin'],
 };
 
 interface ExpressLayer {

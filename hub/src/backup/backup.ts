@@ -1,0 +1,73 @@
+import { copyFile, mkdir, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { PGlite } from '@electric-sql/pglite';
+import * as tar from 'tar';
+import type { Database } from '../database/database.js';
+
+/** The data folder's own secrets: without them restored badges and sessions would not check. */
+const SECRET_FILES = ['jwt-secret', 'badge-key'] as const;
+const DATABASE_ENTRY = 'database.tar.gz';
+
+/** A restore was asked into a data folder that already holds something. */
+export class RestoreTargetNotEmptyError extends Error {
+  constructor(readonly dir: string) {
+    super(
+      `The data folder ${dir} is not empty: restore only into a new or empty folder, so nothing ` +
+        'is overwritten (move the old folder aside first).',
+    );
+    this.name = 'RestoreTargetNotEmptyError';
+  }
+}
+
+async function inTempFolder<T>(run: (dir: string) => Promise<T>): Promise<T> {
+  const dir = await mkdtemp(join(tmpdir(), 'tareline-backup-'));
+  try {
+    return await run(dir);
+  } finally {
+    await rm(dir, { recursive: true, force: true });
+  }
+}
+
+/**
+ * A backup of a hub's data as a gzipped tarball: the embedded PostgreSQL's own dump (taken
+ * between two statements of its single connection, so consistent) and the folder's secrets.
+ */
+export function backupOf(database: Database): Promise<Buffer> {
+  return inTempFolder(async (work) => {
+    const dump = await database.dump();
+    await writeFile(join(work, DATABASE_ENTRY), Buffer.from(await dump.arrayBuffer()), {
+      mode: 0o600,
+    });
+    const entries: string[] = [DATABASE_ENTRY];
+    for (const name of SECRET_FILES) {
+      const copied = await copyFile(join(database.dir, name), join(work, name)).then(
+        () => true,
+        () => false, // a secret set in the environment has no file
+      );
+      if (copied) entries.push(name);
+    }
+    const out = join(work, 'backup.tar.gz');
+    await tar.c({ gzip: true, file: out, cwd: work, portable: true }, entries);
+    return readFile(out);
+  });
+}
+
+/** Brings a backup back into an empty data folder; the hub started on it migrates as usual. */
+export async function restoreBackup(dir: string, backup: Buffer): Promise<void> {
+  const present = await readdir(dir).catch(() => []);
+  if (present.length > 0) throw new RestoreTargetNotEmptyError(dir);
+  await inTempFolder(async (work) => {
+    const file = join(work, 'backup.tar.gz');
+    await writeFile(file, backup);
+    await tar.x({ file, cwd: work, strict: true });
+    const dump = await readFile(join(work, DATABASE_ENTRY));
+    await mkdir(dir, { recursive: true, mode: 0o700 });
+    const client = new PGlite(join(dir, 'pg'), { loadDataDir: new Blob([dump]) });
+    await client.waitReady;
+    await client.close();
+    for (const name of SECRET_FILES) {
+      await copyFile(join(work, name), join(dir, name)).catch(() => undefined);
+    }
+  });
+}
