@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { artifactsDir, launchBrowser } from './support/browser';
-import { batchFromHub, LONG, quickBenchEnv, scanBadge } from './support/bench';
+import { batchFromHub, driveSimulator, LONG, quickBenchEnv, scanBadge } from './support/bench';
 import { startBuiltHub, type HubProcess } from './support/hub-process';
 
 describe('the bench flow in Chromium', () => {
@@ -20,13 +20,9 @@ describe('the bench flow in Chromium', () => {
     await hub?.stop();
   });
 
-  /** Drives the simulated scale on bench-1 (a public developer endpoint). */
+  /** Drives the simulated scale on bench-1 (as the demo lead). */
   async function simulate(steps: SimulatorStep[]): Promise<void> {
-    const res = await fetch(`${hub.url}/api/benches/bench-1/simulator`, {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
-      body: JSON.stringify(steps),
-    });
+    const res = await driveSimulator(hub.url, steps);
     expect(res.status).toBe(200);
   }
 

@@ -1,5 +1,6 @@
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { driveSimulator } from './support/bench';
 import { artifactsDir, launchBrowser } from './support/browser';
 import { startBuiltHub, type HubProcess } from './support/hub-process';
 
@@ -34,11 +35,7 @@ describe('the live-scale page in Chromium', () => {
     const box = await weight.boundingBox();
     expect(box?.height).toBeGreaterThanOrEqual(120);
 
-    const place = await fetch(`${hub.url}/api/benches/bench-1/simulator`, {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
-      body: JSON.stringify([{ do: 'place-cup', massG: 40 }, { do: 'settle' }]),
-    });
+    const place = await driveSimulator(hub.url, [{ do: 'place-cup', massG: 40 }, { do: 'settle' }]);
     expect(place.status).toBe(200);
     await page.waitForFunction(
       () =>
@@ -49,11 +46,10 @@ describe('the live-scale page in Chromium', () => {
     );
 
     // A pour in the background: the number climbs while it runs.
-    const pour = fetch(`${hub.url}/api/benches/bench-1/simulator`, {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
-      body: JSON.stringify([{ do: 'pour', grams: 30, rateGPerS: 10 }, { do: 'settle' }]),
-    });
+    const pour = driveSimulator(hub.url, [
+      { do: 'pour', grams: 30, rateGPerS: 10 },
+      { do: 'settle' },
+    ]);
     await page.waitForFunction(
       () => {
         const g = Number(document.querySelector('[data-testid="net-weight"]')?.textContent);

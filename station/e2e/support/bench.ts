@@ -1,4 +1,4 @@
-import type { Batch } from '@tareline/protocol';
+import type { Batch, SimulatorStep } from '@tareline/protocol';
 import type { Page } from 'playwright-core';
 
 /** The machine is shared and slow under load: generous waits. */
@@ -49,4 +49,22 @@ export async function batchFromHub(page: Page, hubUrl: string, id: number): Prom
   });
   if (res.status !== 200) throw new Error(`GET /api/batches/${id} answered ${res.status}`);
   return (await res.json()) as Batch;
+}
+
+/**
+ * Drives bench-1's simulated scale as the demo lead (desk sign-in, README): the simulator route
+ * pours and unplugs as a person at the bench would, so it needs someone who may work there.
+ */
+export async function driveSimulator(hubUrl: string, steps: SimulatorStep[]): Promise<Response> {
+  const login = await fetch(`${hubUrl}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json' },
+    body: JSON.stringify({ email: 'ilse.varga@hollin-ridge.example', password: 'ridge-lead-demo' }),
+  });
+  const { token } = (await login.json()) as { token: string };
+  return fetch(`${hubUrl}/api/benches/bench-1/simulator`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${token}` },
+    body: JSON.stringify(steps),
+  });
 }
