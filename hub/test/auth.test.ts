@@ -2,11 +2,11 @@ import { stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { JwtService } from '@nestjs/jwt';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { CLOCK, type Clock } from '../src/auth/clock.js';
+import { CLOCK, type Clock } from '../src/common/clock.js';
 import { CredentialHasher } from '../src/auth/credential-hasher.js';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
 import { AUTH_KEYS, type AuthKeys } from '../src/auth/secrets.js';
-import { BADGE_LOCK_MS } from '../src/auth/sign-in.service.js';
+import { BADGE_LOCK_MS } from '../src/auth/badge-lockout.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 

@@ -1,6 +1,6 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { CLOCK, type Clock } from '../src/auth/clock.js';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { CLOCK, type Clock } from '../src/common/clock.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
 import {
   SOCKET_AUTHENTICATOR,
   SocketRefusedError,
