@@ -3,7 +3,8 @@ import { join } from 'node:path';
 import { healthResponseSchema } from '@tareline/protocol';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Database, DataDirInUseError } from '../src/database/database.js';
+import { DataDirInUseError } from '../src/database/data-dir.js';
+import { Database } from '../src/database/database.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 
 describe('hub, booted for real on a temporary PGlite folder', () => {
