@@ -26,7 +26,7 @@ async function freeTheDiskAndRestart(hub: TestHub, dataDir: string): Promise<Tes
   return startTestHub(dataDir, { TARELINE_SIGN_IN_LIMIT: '1000' });
 }
 
-describe('a hub whose disk is full', () => {
+describe('a hub whose disk is full', { timeout: 90_000 }, () => {
   let hub: TestHub | undefined;
   let data: Awaited<ReturnType<typeof tempDataDir>> | undefined;
 
