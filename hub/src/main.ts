@@ -2,9 +2,11 @@ import 'reflect-metadata';
 import { Logger } from '@nestjs/common';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config/app-config.js';
-import { DataDirInUseError } from './database/database.js';
+import { createFilesPrivately, DataDirInUseError } from './database/data-dir.js';
 
 async function bootstrap(): Promise<void> {
+  // Before anything writes: the data folder holds hashes and secrets.
+  createFilesPrivately();
   const config = loadConfig();
   const app = await createApp(config);
   await app.listen(config.http.port, config.http.host);

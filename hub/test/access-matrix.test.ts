@@ -1,7 +1,7 @@
 import type { Role } from '@tareline/protocol';
 import { ROLES } from '@tareline/protocol';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
 import { TokenService } from '../src/auth/token.service.js';
 import { call } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';

@@ -1,24 +1,59 @@
-import { readFile } from 'node:fs/promises';
+import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { healthResponseSchema } from '@tareline/protocol';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Database, DataDirInUseError } from '../src/database/database.js';
+import { DataDirInUseError } from '../src/database/data-dir.js';
+import { Database } from '../src/database/database.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 
 describe('hub, booted for real on a temporary PGlite folder', () => {
   let hub: TestHub;
   let data: Awaited<ReturnType<typeof tempDataDir>>;
+  let station: Awaited<ReturnType<typeof tempDataDir>>;
 
   beforeAll(async () => {
     data = await tempDataDir();
-    hub = await startTestHub(data.dir);
+    // A stand-in for the built station, so its page is served whether or not it was built.
+    station = await tempDataDir();
+    await mkdir(join(station.dir, 'assets'));
+    await writeFile(join(station.dir, 'index.html'), '<!doctype html><title>Tareline</title>');
+    hub = await startTestHub(data.dir, { TARELINE_STATION_DIR: station.dir });
   });
 
   afterAll(async () => {
     await hub?.close();
     await data?.remove();
+    await station?.remove();
   });
+
+  it.each(['/', '/bench', '/api/health'])(
+    'sends security headers with %s: scripts, styles and connections from the hub only',
+    async (path) => {
+      const res = await fetch(`${hub.url}${path}`);
+      expect(res.status).toBe(200);
+      const policy = new Map(
+        (res.headers.get('content-security-policy') ?? '').split(';').map((directive) => {
+          const [name, ...sources] = directive.trim().split(/\s+/u);
+          return [name, sources] as const;
+        }),
+      );
+      expect(policy.get('default-src')).toEqual(["'self'"]);
+      expect(policy.get('script-src')).toEqual(["'self'"]);
+      expect(policy.get('script-src-attr')).toEqual(["'none'"]);
+      expect(policy.get('style-src')).toEqual(["'self'"]);
+      expect(policy.get('connect-src')).toEqual(["'self'"]);
+      expect(policy.get('object-src')).toEqual(["'none'"]);
+      expect(policy.get('frame-ancestors')).toEqual(["'none'"]);
+      // The hub is reached over plain HTTP on the shop network.
+      expect(policy.has('upgrade-insecure-requests')).toBe(false);
+      expect(res.headers.get('strict-transport-security')).toBeNull();
+      expect(res.headers.get('x-content-type-options')).toBe('nosniff');
+      expect(res.headers.get('referrer-policy')).toBe('no-referrer');
+      expect(res.headers.get('x-frame-options')).toBe('DENY');
+      expect(res.headers.get('x-powered-by')).toBeNull();
+    },
+  );
 
   it('answers /api/health with the database ok', async () => {
     const res = await fetch(`${hub.url}/api/health`);

@@ -2,11 +2,11 @@ import { stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { JwtService } from '@nestjs/jwt';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { CLOCK, type Clock } from '../src/auth/clock.js';
+import { CLOCK, type Clock } from '../src/common/clock.js';
 import { CredentialHasher } from '../src/auth/credential-hasher.js';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
 import { AUTH_KEYS, type AuthKeys } from '../src/auth/secrets.js';
-import { BADGE_LOCK_MS } from '../src/auth/sign-in.service.js';
+import { BADGE_LOCK_MS } from '../src/auth/badge-lockout.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 
@@ -29,6 +29,14 @@ describe('sign-in, on a hub with the demo shop', () => {
   afterEach(() => {
     vi.restoreAllMocks();
   });
+
+  function rawBadgeSignIn(badge: string, pin: string): Promise<Response> {
+    return fetch(`${hub.url}/api/auth/badge`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ benchId: 'bench-1', badge, pin }),
+    });
+  }
 
   it('signs an operator without a PIN in with the badge alone, at the bench scanned', async () => {
     const answer = await badgeSignIn(hub, DEMO.joss.badge);
@@ -124,6 +132,54 @@ describe('sign-in, on a hub with the demo shop', () => {
     expect(answers).toEqual([401, 401, 401, 401, 423]);
   });
 
+  it('counts at most five of thirty wrong PINs sent at once, then refuses even the right PIN', async () => {
+    const hasher = hub.app.get(CredentialHasher);
+    const verify = vi.spyOn(hasher, 'verifySecret');
+    const answers = await Promise.all(
+      Array.from({ length: 30 }, () => badgeSignIn(hub, DEMO.ilse.badge, '0000')),
+    );
+    const statuses = answers.map((a) => a.status).sort();
+    // Four wrong PINs refused as such, the fifth locks the badge, the rest meet the lock.
+    expect(statuses).toEqual([...Array(4).fill(401), ...Array(26).fill(423)]);
+    expect(verify).toHaveBeenCalledTimes(5);
+    const right = await badgeSignIn(hub, DEMO.ilse.badge, DEMO.ilse.pin);
+    expect(right.status).toBe(423);
+    expect(right.body.message).toBe('Too many wrong PINs: this badge is locked for 5 more minutes');
+
+    vi.spyOn(clock, 'now').mockReturnValue(Date.now() + BADGE_LOCK_MS + 1_000);
+    expect((await badgeSignIn(hub, DEMO.ilse.badge, DEMO.ilse.pin)).status).toBe(200);
+  });
+
+  it('tells the locked-out bench when to try again', async () => {
+    const answers = [];
+    for (let i = 0; i < 5; i += 1) answers.push(await rawBadgeSignIn('ZZ-5150', '2222'));
+    const locked = answers.at(-1)!;
+    expect(locked.status).toBe(423);
+    // Five minutes, in seconds (the lock's length).
+    expect(locked.headers.get('retry-after')).toBe(String(BADGE_LOCK_MS / 1000));
+  });
+
+  it('answers the badge of a switched-off person without a PIN exactly like an unknown badge', async () => {
+    const people = hub.app.get(PeopleRepository);
+    const joss = (await people.list()).find((p) => p.name === 'Joss Whitcombe')!;
+    await people.update(joss.id, { active: false });
+    try {
+      const unknownScan = await badgeSignIn(hub, 'ZZ-7777');
+      const switchedOffScan = await badgeSignIn(hub, DEMO.joss.badge);
+      expect(switchedOffScan).toEqual(unknownScan);
+      expect(switchedOffScan.status).toBe(401);
+      const unknownWithPin = await badgeSignIn(hub, 'ZZ-7777', '1234');
+      const switchedOffWithPin = await badgeSignIn(hub, DEMO.joss.badge, '1234');
+      expect(switchedOffWithPin).toEqual(unknownWithPin);
+      expect(switchedOffWithPin).toEqual({
+        status: 401,
+        body: { message: 'Badge or PIN not recognised', errors: [] },
+      });
+    } finally {
+      await people.update(joss.id, { active: true });
+    }
+  });
+
   it('refuses a person who was deactivated, and ends their open session', async () => {
     const signedIn = await badgeSignIn(hub, DEMO.tomas.badge, DEMO.tomas.pin);
     const people = hub.app.get(PeopleRepository);
@@ -155,6 +211,19 @@ describe('sign-in, on a hub with the demo shop', () => {
     const me = await call<{ message: string }>(hub, 'GET', '/api/me', { token: expired });
     expect(me.status).toBe(401);
     expect(me.body.message).toBe('Your session has ended: sign in again');
+  });
+
+  it('refuses a correctly signed token that never runs out (no expiry in it)', async () => {
+    const keys = hub.app.get<AuthKeys>(AUTH_KEYS);
+    const people = hub.app.get(PeopleRepository);
+    const admin = (await people.list()).find((p) => p.role === 'admin')!;
+    const forever = await new JwtService().signAsync(
+      { sub: admin.id, role: 'admin', jti: 'never-expires', iat: Math.floor(Date.now() / 1000) },
+      { secret: keys.jwtSecret },
+    );
+    const answer = await call<{ message: string }>(hub, 'GET', '/api/people', { token: forever });
+    expect(answer.status).toBe(401);
+    expect(answer.body.message).toBe('Your session has ended: sign in again');
   });
 
   it('refuses a token signed with another secret', async () => {

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
 import { DemoService } from '../src/demo/demo.service.js';
 import { startTestHub, tempDataDir } from './support/test-app.js';
 

@@ -81,6 +81,24 @@ describe('people routes (admins)', () => {
     expect(answer.body.errors[0]).toMatchObject({ path: 'badge' });
   });
 
+  it('gives an e-mail to one of two people added with it at the same moment, and says why to the other', async () => {
+    const lead = (name: string) => ({
+      name,
+      role: 'lead',
+      email: 'bench.lead@hollin-ridge.example',
+      password: 'a desk password',
+    });
+    const answers = await Promise.all([
+      asAdmin('POST', '/api/people', lead('Rowan Tilley')),
+      asAdmin('POST', '/api/people', lead('Rowan Tilly')),
+    ]);
+    expect(answers.map((a) => a.status).sort()).toEqual([201, 409]);
+    const refused = answers.find((a) => a.status === 409)!;
+    expect(refused.body.errors).toEqual([
+      { path: 'email', message: 'Someone else already has this e-mail' },
+    ]);
+  });
+
   it('assigns a new badge: the old one stops working, the new one signs in', async () => {
     const joss = (await asAdmin<Person[]>('GET', '/api/people')).body.find(
       (p) => p.name === 'Joss Whitcombe',

@@ -1,7 +1,7 @@
 import { type Batch, type Material, type Person } from '@tareline/protocol';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
 import { TokenService } from '../src/auth/token.service.js';
 import { call, DEMO } from './support/auth-helpers.js';
 import { rawRequest } from './support/raw-request.js';

@@ -1,6 +1,8 @@
+import { JwtService } from '@nestjs/jwt';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { CLOCK, type Clock } from '../src/auth/clock.js';
-import { PeopleRepository } from '../src/auth/people.repository.js';
+import { CLOCK, type Clock } from '../src/common/clock.js';
+import { PeopleRepository } from '../src/people/people.repository.js';
+import { AUTH_KEYS, type AuthKeys } from '../src/auth/secrets.js';
 import {
   SOCKET_AUTHENTICATOR,
   SocketRefusedError,
@@ -44,6 +46,18 @@ describe('live socket authenticator (SOCKET_AUTHENTICATOR)', () => {
     await expect(
       sockets.authenticate({ token: 'not.a.token', benchId: 'bench-1' }),
     ).rejects.toBeInstanceOf(SocketRefusedError);
+  });
+
+  it('refuses a correctly signed token that has no expiry', async () => {
+    const keys = hub.app.get<AuthKeys>(AUTH_KEYS);
+    const lead = (await hub.app.get(PeopleRepository).list()).find((p) => p.role === 'lead')!;
+    const forever = await new JwtService().signAsync(
+      { sub: lead.id, role: 'lead', jti: 'no-expiry', iat: Math.floor(Date.now() / 1000) },
+      { secret: keys.jwtSecret },
+    );
+    await expect(sockets.authenticate({ token: forever, benchId: 'bench-1' })).rejects.toThrow(
+      new SocketRefusedError('Your session has ended: sign in again'),
+    );
   });
 
   it('lets an operator watch the bench they signed in at, and no other', async () => {

@@ -6,11 +6,12 @@ import { ThrottlerModule } from '@nestjs/throttler';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { AccessGuard } from './access.guard.js';
 import { AuthController } from './auth.controller.js';
-import { CLOCK, systemClock, type Clock } from './clock.js';
+import { BadgeLockout } from './badge-lockout.js';
+import { CLOCK, systemClock, type Clock } from '../common/clock.js';
 import { CredentialHasher } from './credential-hasher.js';
 import { JwtSocketAuthenticator } from './jwt-socket-authenticator.js';
 import { JwtStrategy } from './jwt.strategy.js';
-import { PeopleRepository } from './people.repository.js';
+import { PeopleModule } from '../people/people.module.js';
 import { AUTH_KEYS, loadOrCreateSecret, type AuthKeys } from './secrets.js';
 import { SignInRepository } from './sign-in.repository.js';
 import { SignInService } from './sign-in.service.js';
@@ -19,11 +20,13 @@ import { TokenService } from './token.service.js';
 
 /**
  * Sign-in, sessions and the access guard on every route and socket event. Global, so any module
- * can use `@CurrentUser()`, the people store, and the live socket's authenticator.
+ * can use `@CurrentUser()`, the clock, and the live socket's authenticator.
  */
 @Global()
 @Module({
   imports: [
+    // The people store, for sign-in and for resolving a token to its person.
+    PeopleModule,
     PassportModule,
     // Secrets are passed per call: they come from the data folder, loaded by AUTH_KEYS.
     JwtModule.register({}),
@@ -49,8 +52,8 @@ import { TokenService } from './token.service.js';
     },
     { provide: CLOCK, useFactory: (): Clock => ({ ...systemClock }) },
     CredentialHasher,
-    PeopleRepository,
     SignInRepository,
+    BadgeLockout,
     TokenService,
     SignInService,
     JwtStrategy,
@@ -58,6 +61,6 @@ import { TokenService } from './token.service.js';
     { provide: SOCKET_AUTHENTICATOR, useExisting: JwtSocketAuthenticator },
     { provide: APP_GUARD, useClass: AccessGuard },
   ],
-  exports: [SOCKET_AUTHENTICATOR, CredentialHasher, PeopleRepository, TokenService, CLOCK],
+  exports: [SOCKET_AUTHENTICATOR, CredentialHasher, TokenService, CLOCK],
 })
 export class AuthModule {}

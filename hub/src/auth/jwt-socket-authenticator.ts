@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { TokenClaims } from './auth-user.js';
-import { CLOCK, type Clock } from './clock.js';
+import { CLOCK, type Clock } from '../common/clock.js';
 import {
   SocketRefusedError,
   type SocketAuthenticator,
@@ -50,6 +50,10 @@ export class JwtSocketAuthenticator implements SocketAuthenticator {
       if (err instanceof SessionEndedError) throw new SocketRefusedError(err.message);
       throw err;
     }
+  }
+
+  onSessionEnded(listener: () => void): () => void {
+    return this.tokens.onSessionEnded(listener);
   }
 
   async stillValid(principal: SocketPrincipal): Promise<boolean> {

@@ -1,7 +1,7 @@
 import { Inject, Injectable, UnauthorizedException } from '@nestjs/common';
 import { PassportStrategy } from '@nestjs/passport';
 import { ExtractJwt, Strategy } from 'passport-jwt';
-import type { AuthUser, TokenClaims } from './auth-user.js';
+import type { AuthUser } from './auth-user.js';
 import { AUTH_KEYS, type AuthKeys } from './secrets.js';
 import { SessionEndedError, TokenService } from './token.service.js';
 
@@ -20,9 +20,10 @@ export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
     });
   }
 
-  async validate(claims: TokenClaims): Promise<AuthUser> {
+  /** `payload` is whatever the signed token holds; `resolve` checks its claims. */
+  async validate(payload: unknown): Promise<AuthUser> {
     try {
-      return await this.tokens.resolve(claims);
+      return await this.tokens.resolve(payload);
     } catch (err) {
       if (err instanceof SessionEndedError) throw new UnauthorizedException(err.message);
       throw err;

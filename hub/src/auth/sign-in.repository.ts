@@ -1,11 +1,21 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { eq, lt, sql } from 'drizzle-orm';
+import { eq, lt } from 'drizzle-orm';
 import { Database } from '../database/database.js';
 import { badgeLocks, benches, revokedTokens } from '../database/schema/index.js';
+import { guardStore } from '../database/store-errors.js';
 
 export type BenchRow = typeof benches.$inferSelect;
 
-/** Wrong-PIN counters, signed-out tokens and the bench a badge is scanned at. */
+/** Wrong PINs in a row on one badge, and until when it is locked (epoch ms). */
+export interface BadgeLockState {
+  failures: number;
+  lockedUntil: number | null;
+}
+
+/**
+ * Wrong-PIN counters, signed-out tokens and the bench a badge is scanned at. Throws domain
+ * errors only (StoreUnavailable when the database fails).
+ */
 @Injectable()
 export class SignInRepository {
   constructor(@Inject(Database) private readonly database: Database) {}
@@ -14,52 +24,60 @@ export class SignInRepository {
     return this.database.db;
   }
 
-  async findBench(id: string): Promise<BenchRow | undefined> {
-    const [row] = await this.db.select().from(benches).where(eq(benches.id, id));
-    return row;
+  findBench(id: string): Promise<BenchRow | undefined> {
+    return guardStore(async () => {
+      const [row] = await this.db.select().from(benches).where(eq(benches.id, id));
+      return row;
+    });
   }
 
-  async lockedUntil(badgeHash: string): Promise<Date | null> {
-    const [row] = await this.db
-      .select({ lockedUntil: badgeLocks.lockedUntil })
-      .from(badgeLocks)
-      .where(eq(badgeLocks.badgeHash, badgeHash));
-    return row?.lockedUntil ?? null;
+  badgeLock(badgeHash: string): Promise<BadgeLockState | undefined> {
+    return guardStore(async () => {
+      const [row] = await this.db
+        .select({ failures: badgeLocks.failures, lockedUntil: badgeLocks.lockedUntil })
+        .from(badgeLocks)
+        .where(eq(badgeLocks.badgeHash, badgeHash));
+      return row && { failures: row.failures, lockedUntil: row.lockedUntil?.getTime() ?? null };
+    });
   }
 
-  /** Counts one wrong PIN; at `maxFailures` in a row the badge locks until `lockUntil`. */
-  async recordFailure(badgeHash: string, maxFailures: number, lockUntil: Date): Promise<boolean> {
-    const [row] = await this.db
-      .insert(badgeLocks)
-      .values({ badgeHash, failures: 1 })
-      .onConflictDoUpdate({
-        target: badgeLocks.badgeHash,
-        set: { failures: sql`${badgeLocks.failures} + 1`, updatedAt: sql`now()` },
-      })
-      .returning({ failures: badgeLocks.failures });
-    if ((row?.failures ?? 0) < maxFailures) return false;
-    await this.db
-      .update(badgeLocks)
-      .set({ failures: 0, lockedUntil: lockUntil })
-      .where(eq(badgeLocks.badgeHash, badgeHash));
-    return true;
+  /**
+   * Stores a badge's count and lock in one statement. The caller decides the values, one attempt
+   * per badge at a time, so writing them whole is what keeps the count exact.
+   */
+  saveBadgeLock(badgeHash: string, state: BadgeLockState): Promise<void> {
+    return guardStore(async () => {
+      if (state.failures === 0 && state.lockedUntil === null) {
+        await this.db.delete(badgeLocks).where(eq(badgeLocks.badgeHash, badgeHash));
+        return;
+      }
+      const values = {
+        failures: state.failures,
+        lockedUntil: state.lockedUntil === null ? null : new Date(state.lockedUntil),
+        updatedAt: new Date(),
+      };
+      await this.db
+        .insert(badgeLocks)
+        .values({ badgeHash, ...values })
+        .onConflictDoUpdate({ target: badgeLocks.badgeHash, set: values });
+    });
   }
 
-  async clearFailures(badgeHash: string): Promise<void> {
-    await this.db.delete(badgeLocks).where(eq(badgeLocks.badgeHash, badgeHash));
+  revokeToken(tokenId: string, expiresAt: Date, now: Date): Promise<void> {
+    return guardStore(async () => {
+      await this.db.insert(revokedTokens).values({ tokenId, expiresAt }).onConflictDoNothing();
+      // Tokens past their expiry are refused anyway: forget them.
+      await this.db.delete(revokedTokens).where(lt(revokedTokens.expiresAt, now));
+    });
   }
 
-  async revokeToken(tokenId: string, expiresAt: Date, now: Date): Promise<void> {
-    await this.db.insert(revokedTokens).values({ tokenId, expiresAt }).onConflictDoNothing();
-    // Tokens past their expiry are refused anyway: forget them.
-    await this.db.delete(revokedTokens).where(lt(revokedTokens.expiresAt, now));
-  }
-
-  async isRevoked(tokenId: string): Promise<boolean> {
-    const [row] = await this.db
-      .select({ tokenId: revokedTokens.tokenId })
-      .from(revokedTokens)
-      .where(eq(revokedTokens.tokenId, tokenId));
-    return row !== undefined;
+  isRevoked(tokenId: string): Promise<boolean> {
+    return guardStore(async () => {
+      const [row] = await this.db
+        .select({ tokenId: revokedTokens.tokenId })
+        .from(revokedTokens)
+        .where(eq(revokedTokens.tokenId, tokenId));
+      return row !== undefined;
+    });
   }
 }

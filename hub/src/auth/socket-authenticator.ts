@@ -18,6 +18,11 @@ export interface SocketAuthenticator {
   authenticate(handshake: { token: string | undefined; benchId: string }): Promise<SocketPrincipal>;
   /** Still allowed? Called periodically; false disconnects (person deactivated, token expired). */
   stillValid(principal: SocketPrincipal): Promise<boolean>;
+  /**
+   * Calls `listener` when a session has just ended early (a sign-out), so open sockets can be
+   * checked at once instead of at the next periodic check. Returns the unsubscribe.
+   */
+  onSessionEnded(listener: () => void): () => void;
 }
 
 export const SOCKET_AUTHENTICATOR = Symbol('SOCKET_AUTHENTICATOR');

@@ -7,7 +7,7 @@ import {
   type OnApplicationShutdown,
 } from '@nestjs/common';
 import type { ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
-import { CLOCK, type Clock } from '../auth/clock.js';
+import { CLOCK, type Clock } from '../common/clock.js';
 import { StoreUnavailable } from '../common/domain-errors.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { HubEvents, OnHubEvent } from '../events/hub-events.js';

@@ -1,7 +1,7 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import type { Batch, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
-import { CLOCK, type Clock } from '../auth/clock.js';
+import { CLOCK, type Clock } from '../common/clock.js';
 import { ScaleCommandFailed, StoreUnavailable } from '../common/domain-errors.js';
 import { HubEvents, OnHubEvent, type HubEventMap } from '../events/hub-events.js';
 import { ScaleCommandError } from '../scales/scale-link.js';

@@ -1,28 +1,17 @@
-import { mkdir } from 'node:fs/promises';
 import { join } from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
 import { sql } from 'drizzle-orm';
 import { drizzle, type PgliteDatabase } from 'drizzle-orm/pglite';
 import { migrate } from 'drizzle-orm/pglite/migrator';
-import lockfile from 'proper-lockfile';
+import { createFilesPrivately, lockDataDir, makePrivate } from './data-dir.js';
 import * as schema from './schema/index.js';
 
 export type Db = PgliteDatabase<typeof schema>;
 
-/** A second hub on the same data folder would corrupt it; this says so instead. */
-export class DataDirInUseError extends Error {
-  constructor(readonly dir: string) {
-    super(
-      `The data folder ${dir} is already in use by another Tareline hub. ` +
-        'Stop that hub first, or start this one with another TARELINE_DATA_DIR.',
-    );
-    this.name = 'DataDirInUseError';
-  }
-}
-
 /**
  * The embedded PostgreSQL (PGlite) in a data folder on disk, reached only through Drizzle.
- * Opening takes an exclusive lock on the folder and applies pending migrations.
+ * Opening takes an exclusive lock on the folder and applies pending migrations. The folder and
+ * its files are the hub user's alone (0700 and 0600).
  */
 export class Database {
   private constructor(
@@ -33,32 +22,21 @@ export class Database {
   ) {}
 
   static async open(dir: string, migrationsFolder: string): Promise<Database> {
-    // PGlite does not create parent folders.
-    await mkdir(dir, { recursive: true });
-    let releaseLock: () => Promise<void>;
-    try {
-      releaseLock = await lockfile.lock(dir, {
-        lockfilePath: join(dir, 'hub.lock'),
-        // A hub that died leaves its lock; after this long without a refresh it counts as gone.
-        stale: 10_000,
-        update: 2_000,
-        retries: 0,
-        realpath: false,
-        onCompromised: (err) => {
-          // Another process took the folder from under us: stop before writing anything more.
-          process.emitWarning(`Lost the lock on ${dir}: ${err.message}`);
-        },
-      });
-    } catch (err) {
-      if ((err as NodeJS.ErrnoException).code === 'ELOCKED') throw new DataDirInUseError(dir);
-      throw err;
-    }
+    createFilesPrivately();
+    // Also creates the folder: PGlite does not create parent folders.
+    await makePrivate(dir);
+    const releaseLock = await lockDataDir(dir, (err) => {
+      // Another process took the folder from under us: stop before writing anything more.
+      process.emitWarning(`Lost the lock on ${dir}: ${err.message}`);
+    });
     let client: PGlite | undefined;
     try {
       client = new PGlite(join(dir, 'pg'));
       await client.waitReady;
       const db = drizzle({ client, schema });
       await migrate(db, { migrationsFolder });
+      // A new folder's first files come from PGlite with mode 0666.
+      await makePrivate(dir);
       return new Database(db, client, releaseLock, dir);
     } catch (err) {
       await client?.close().catch(() => undefined);
@@ -83,6 +61,8 @@ export class Database {
   async close(): Promise<void> {
     try {
       if (!this.client.closed) await this.client.close();
+      // PGlite rewrites some files (relation caches) with mode 0644 while it runs.
+      await makePrivate(this.dir);
     } finally {
       await this.releaseLock().catch(() => undefined);
     }

@@ -2,7 +2,7 @@ import { Inject, Injectable, Logger, type OnApplicationBootstrap } from '@nestjs
 import { lotInputSchema, materialInputSchema } from '@tareline/protocol';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { Database, type Db } from '../database/database.js';
-import { PeopleRepository } from '../auth/people.repository.js';
+import { PeopleRepository } from '../people/people.repository.js';
 import { PeopleService } from '../people/people.service.js';
 import { BenchesService } from '../benches/benches.service.js';
 import { MaterialsService } from '../materials/materials.service.js';

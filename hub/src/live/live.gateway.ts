@@ -29,8 +29,11 @@ type LiveNamespace = Namespace<
 >;
 type LiveSocket = Socket<LiveClientEvents, LiveServerEvents, Record<string, never>, LiveSocketData>;
 
-/** How often open sockets are asked again whether their person may still watch. */
-const RECHECK_EVERY_MS = 60_000;
+/**
+ * How often open sockets are asked again whether their person may still watch: a person switched
+ * off stops seeing the bench within this long. A sign-out is pushed and acts at once.
+ */
+export const RECHECK_EVERY_MS = 5_000;
 /** setTimeout's longest delay; a later expiry is caught by the periodic re-check. */
 const MAX_TIMER_MS = 2 ** 31 - 1;
 
@@ -52,6 +55,7 @@ export class LiveGateway
   private readonly logger = new Logger('Live');
   private readonly expiryTimers = new Map<string, NodeJS.Timeout>();
   private recheckTimer: NodeJS.Timeout | undefined;
+  private stopWatchingSessions: (() => void) | undefined;
 
   @WebSocketServer()
   private readonly server!: LiveNamespace;
@@ -88,8 +92,9 @@ export class LiveGateway
         },
       );
     });
-    this.recheckTimer = setInterval(() => void this.recheck(), RECHECK_EVERY_MS);
+    this.recheckTimer = setInterval(() => this.recheckSoon(), RECHECK_EVERY_MS);
     this.recheckTimer.unref();
+    this.stopWatchingSessions = this.authenticator.onSessionEnded(() => this.recheckSoon());
   }
 
   async handleConnection(socket: LiveSocket): Promise<void> {
@@ -124,8 +129,15 @@ export class LiveGateway
   /** Stops the periodic re-check (the app is closing). */
   close(): void {
     clearInterval(this.recheckTimer);
+    this.stopWatchingSessions?.();
     for (const timer of this.expiryTimers.values()) clearTimeout(timer);
     this.expiryTimers.clear();
+  }
+
+  private recheckSoon(): void {
+    this.recheck().catch((err: unknown) =>
+      this.logger.error(err instanceof Error ? err : String(err)),
+    );
   }
 
   private async recheck(): Promise<void> {

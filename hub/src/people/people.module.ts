@@ -1,10 +1,11 @@
 import { Module } from '@nestjs/common';
 import { PeopleController } from './people.controller.js';
+import { PeopleRepository } from './people.repository.js';
 import { PeopleService } from './people.service.js';
 
 @Module({
   controllers: [PeopleController],
-  providers: [PeopleService],
-  exports: [PeopleService],
+  providers: [PeopleRepository, PeopleService],
+  exports: [PeopleRepository, PeopleService],
 })
 export class PeopleModule {}

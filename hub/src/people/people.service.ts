@@ -1,8 +1,15 @@
-import { ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
-import type { ApiError, Person, Role } from '@tareline/protocol';
+import { Inject, Injectable } from '@nestjs/common';
+import type { Person, Role } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CredentialHasher } from '../auth/credential-hasher.js';
-import { PeopleRepository, type NewPersonRow, type PersonRow } from '../auth/people.repository.js';
+import { Conflict, NotFound } from '../common/domain-errors.js';
+import {
+  BADGE_TAKEN,
+  EMAIL_TAKEN,
+  PeopleRepository,
+  type NewPersonRow,
+  type PersonRow,
+} from './people.repository.js';
 
 export interface NewPerson {
   name: string;
@@ -69,38 +76,40 @@ export class PeopleService {
     if (losesAdmin && (await this.people.countActiveAdmins()) <= 1) {
       throw conflict('This is the last active admin: make someone else admin first', 'role');
     }
-    const updated = await this.people.update(id, {
+    return this.change(id, {
       ...(changes.name !== undefined ? { name: changes.name } : {}),
       email,
       role,
       active,
     });
-    return toPerson(updated!);
   }
 
   async assignBadge(id: string, badge: string): Promise<Person> {
     const person = await this.get(id);
     const badgeHash = this.hasher.badgeHash(badge);
     if (person.badgeHash !== badgeHash) await this.assertFree({ email: undefined, badgeHash });
-    return toPerson((await this.people.update(id, { badgeHash }))!);
+    return this.change(id, { badgeHash });
   }
 
   async setPin(id: string, pin: string | null): Promise<Person> {
     await this.get(id);
     const pinHash = pin === null ? null : await this.hasher.hashSecret(pin);
-    return toPerson((await this.people.update(id, { pinHash }))!);
+    return this.change(id, { pinHash });
   }
 
   async setPassword(id: string, password: string): Promise<Person> {
     await this.get(id);
     const passwordHash = await this.hasher.hashSecret(password);
-    return toPerson((await this.people.update(id, { passwordHash }))!);
+    return this.change(id, { passwordHash });
   }
 
   private async get(id: string): Promise<PersonRow> {
-    const person = await this.people.findById(id);
-    if (!person) throw new NotFoundException(`No person with id ${id}`);
-    return person;
+    return (await this.people.findById(id)) ?? notFound(id);
+  }
+
+  /** Writes changes; a person removed meanwhile is as unknown as one who never was. */
+  private async change(id: string, values: Partial<NewPersonRow>): Promise<Person> {
+    return toPerson((await this.people.update(id, values)) ?? notFound(id));
   }
 
   private async assertFree(taken: {
@@ -108,16 +117,20 @@ export class PeopleService {
     badgeHash: string | null;
   }): Promise<void> {
     if (taken.email && (await this.people.findByEmail(taken.email))) {
-      throw conflict('Someone else already has this e-mail', 'email');
+      throw conflict(EMAIL_TAKEN, 'email');
     }
     if (taken.badgeHash && (await this.people.findByBadgeHash(taken.badgeHash))) {
-      throw conflict('This badge belongs to someone else: take it off them first', 'badge');
+      throw conflict(BADGE_TAKEN, 'badge');
     }
   }
 }
 
-function conflict(message: string, path: string): ConflictException {
-  return new ConflictException({ message, errors: [{ path, message }] } satisfies ApiError);
+function conflict(message: string, path: string): Conflict {
+  return new Conflict(message, [{ path, message }]);
+}
+
+function notFound(id: string): never {
+  throw new NotFound(`No person with id ${id}`);
 }
 
 export function toPerson(row: PersonRow): Person {

@@ -48,6 +48,7 @@ export async function login(hub: TestHub, email: string, password: string): Prom
 export const DEMO = {
   admin: { email: 'oda.fenwick@hollin-ridge.example', password: 'ridge-admin-demo' },
   lead: { email: 'ilse.varga@hollin-ridge.example', password: 'ridge-lead-demo' },
+  ilse: { badge: 'HR-0002', pin: '4321' },
   tomas: { badge: 'HR-1001', pin: '1357' },
   priya: { badge: 'HR-1002', pin: '2468' },
   joss: { badge: 'HR-1003' },

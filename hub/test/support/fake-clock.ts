@@ -1,4 +1,4 @@
-import type { Clock } from '../../src/auth/clock.js';
+import type { Clock } from '../../src/common/clock.js';
 
 /** A clock that moves only when a test says so; repeating tasks run as time passes them. */
 export class FakeClock implements Clock {
