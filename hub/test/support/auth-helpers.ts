@@ -21,6 +21,11 @@ export async function call<T = unknown>(
     },
     body: options.body !== undefined ? JSON.stringify(options.body) : undefined,
   });
+  // Not every answer is JSON (a backup is a gzipped tarball): those bodies are not parsed.
+  if (!res.headers.get('content-type')?.includes('json')) {
+    await res.arrayBuffer();
+    return { status: res.status, body: undefined as T };
+  }
   const text = await res.text();
   return { status: res.status, body: (text ? JSON.parse(text) : undefined) as T };
 }
