@@ -26,7 +26,7 @@ describe('the bench flow in Chromium', () => {
     expect(res.status).toBe(200);
   }
 
-  /** Buttons and links on screen smaller than a gloved finger: 56 px each way (issue 6). */
+  /** Buttons and links on screen smaller than a gloved finger: 56 px each way (common practice for gloved touch targets, no published source). */
   const smallTargets = (page: Page) =>
     page.evaluate(() =>
       [...document.querySelectorAll<HTMLElement>('button, a[href], summary, [role="button"]')]
@@ -99,7 +99,7 @@ describe('the bench flow in Chromium', () => {
     );
     await page.getByText(/^stable · gross/).waitFor(LONG);
     await page.screenshot({ path: join(artifactsDir, 'bench-flow-part-a.png') });
-    // Readable from two metres: net weight digits at least 120 px high at 1280 × 800 (issue 6).
+    // Readable from two metres: net weight digits at least 120 px high at 1280 × 800 (common practice for gloved touch targets, no published source).
     expect((await page.getByTestId('net-weight').boundingBox())!.height).toBeGreaterThanOrEqual(
       120,
     );
@@ -171,7 +171,7 @@ describe('the bench flow in Chromium', () => {
       operator: { name: 'Joss Whitcombe' },
       lots: [{ part: 1, code: 'SC14H-2608', warnings: [] }],
     });
-    // (14.10 / 100 − 0.14) / 0.14 × 100 = +0.714 % (issue 6's worked example); the simulator's
+    // (14.10 / 100 − 0.14) / 0.14 × 100 = +0.714 % (worked by hand from the definition of parts by weight); the simulator's
     // noise and its flow cut-off move the last hundredth, so allow ± 0.15 %.
     expect(batch.ratioDeviationPct!).toBeGreaterThan(0.55);
     expect(batch.ratioDeviationPct!).toBeLessThan(0.9);

@@ -19,7 +19,7 @@ export const sc14: Material = {
 
 /**
  * A batch of SC-14 as the hub answers it once saved GO: 100.00 g then 14.10 g, +0.714 % off
- * ratio ((14.10 / 100) / 0.14 − 1, issue 6's worked example).
+ * ratio ((14.10 / 100) / 0.14 − 1, worked by hand from the definition of parts by weight).
  */
 export function savedBatch(over: Partial<Batch> = {}): Batch {
   const at = '2026-12-02T08:02:00.000Z';

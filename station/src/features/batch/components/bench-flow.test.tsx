@@ -262,7 +262,7 @@ describe('weighing on the live gauge', { timeout: 20_000 }, () => {
     await screen.findByRole('heading', { name: 'Weigh Part B (Hardener): 14.00 g' });
     scaleOnline();
     liveSocket().fire('reading', readingFixture(14.5, true));
-    // 14.5 × 100 / 14 − 100 = 3.571 g of part A (issue 6's worked example); the hub sends it.
+    // 14.5 × 100 / 14 − 100 = 3.571 g of part A (worked by hand from the definition of parts by weight); the hub sends it.
     liveSocket().fire(
       'pour',
       pourFixture({

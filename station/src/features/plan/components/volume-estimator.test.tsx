@@ -112,7 +112,7 @@ describe('volume estimator', { timeout: 20_000 }, () => {
     await typeInto('SG of part B', '0.98');
     // Common practice, no published source: radius 2 in × 1.5 in holds about 18.8 in³ (18.85).
     expect(row(/^Cavity/)).toHaveTextContent('18.8 in³');
-    // mass = volume × SG (issue 3); SG of a 1:1-by-volume mix is the mean, 1.04.
+    // mass = volume × SG; SG of a 1:1-by-volume mix is the mean, 1.04.
     expect(row(/^Mass at SG 1.040/)).toBeInTheDocument();
   });
 
