@@ -352,6 +352,27 @@ describe('a batch that did not go to plan', { timeout: 20_000 }, () => {
       await screen.findByRole('heading', { name: 'Weigh Part B (Hardener): 14.00 g' }),
     ).toBeInTheDocument();
     expect(requests.at(-1)).toMatchObject({ method: 'POST', path: '/batches/7/resume' });
+    expect(screen.queryByText(/will be saved NO-GO/)).not.toBeInTheDocument();
+  });
+
+  it('says before the pour goes on when a resumed batch can only end NO-GO', async () => {
+    const interrupted = partBFixture({
+      state: 'interrupted',
+      interruptedReason: 'The hub restarted during the pour',
+    });
+    const reason = 'contents uncertain after a restart: the balance shows 0.00 g';
+    hubWith(
+      { 'POST /batches/7/resume': () => [201, partBFixture({ noGoReason: reason })] },
+      interrupted,
+    );
+    openBench();
+    scaleOnline();
+    await user.click(await screen.findByRole('button', { name: 'Resume' }));
+    expect(
+      await screen.findByText(
+        `This batch will be saved NO-GO: ${reason}. A lead decides what happens to it.`,
+      ),
+    ).toBeInTheDocument();
   });
 
   it('abandons only with a reason, and says so once the hub has kept it', async () => {

@@ -183,6 +183,13 @@ function ActivePour({
       readabilityG={batch.readabilityG}
       actions={
         <>
+          {batch.noGoReason && (
+            // After a hub restart the cup could not be read back: whatever the gauge shows, the
+            // record will say NO-GO and a lead decides.
+            <p role="alert" className="rounded-xl bg-brass px-4 py-3 text-2xl font-bold text-ink">
+              This batch will be saved NO-GO: {batch.noGoReason}. A lead decides what happens to it.
+            </p>
+          )}
           {actions}
           {abandonButton}
         </>

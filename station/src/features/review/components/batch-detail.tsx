@@ -109,6 +109,12 @@ export function BatchDetail() {
             <dd>{b.interruptedReason}</dd>
           </>
         )}
+        {b.noGoReason && (
+          <>
+            <dt className="text-muted">Why NO-GO whatever the scale showed</dt>
+            <dd>{b.noGoReason}</dd>
+          </>
+        )}
       </dl>
 
       <table className="w-full text-left text-lg">
