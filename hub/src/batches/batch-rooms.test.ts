@@ -3,7 +3,9 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { FakeBatchStore, FakeScales, RecordingEvents } from '../../test/support/batch-fakes.js';
 import { FakeClock } from '../../test/support/fake-clock.js';
 import type { AuthUser } from '../auth/auth-user.js';
-import { NotAllowed, NotFound } from '../common/domain-errors.js';
+import { statusOf } from '../common/api-exception.filter.js';
+import { NotAllowed, NotFound, ScaleCommandFailed } from '../common/domain-errors.js';
+import { ScaleCommandError } from '../scales/scale-link.js';
 import type { MaterialsService } from '../materials/materials.service.js';
 import { BatchRunner, TRACE_FLUSH_MS } from './batch-runner.js';
 import { BatchesService } from './batches.service.js';
@@ -270,6 +272,24 @@ describe('the batch rooms with a fake clock, store and scale', () => {
       scales.print(26.04, false);
       await expect(service.resume(id, TOMAS)).rejects.toThrow(/steady/);
     });
+  });
+
+  it('answers a tare the balance will not take (still moving) as a 409 in words, not a 500', async () => {
+    const batch = await service.create(
+      { benchId: 'bench-1', materialId: 'sc-14', totalMassG: 114, lots: [] },
+      TOMAS,
+    );
+    scales.tare = async () => {
+      throw new ScaleCommandError(
+        'The scale did not settle at zero within 5 s after tare (net 3.2 g); keep the pan still and try again',
+      );
+    };
+    const refusal = await service.tare(batch.id, TOMAS).catch((err: unknown) => err);
+    expect(refusal).toBeInstanceOf(ScaleCommandFailed);
+    expect(statusOf(refusal as ScaleCommandFailed)).toBe(409);
+    expect((refusal as Error).message).toMatch(/did not tare.*keep the cup still/i);
+    // Nothing changed: the pour is still untared.
+    expect((await service.get(batch.id)).active!.tared).toBe(false);
   });
 
   it('names whoever drives the simulated scale under an open batch, at once', async () => {
