@@ -38,6 +38,9 @@ interface Row {
 const table: Row[] = [];
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const trace = (...args: unknown[]) => {
+  if (process.env.TARELINE_FAULT_TRACE) console.log(new Date().toISOString().slice(11, 23), ...args);
+};
 
 async function until<T>(
   what: string,
@@ -162,6 +165,7 @@ class Bench {
   async finish(id: number): Promise<Batch | undefined> {
     for (let step = 0; step < 60; step += 1) {
       const b = await this.batch(id);
+      trace('finish', id, b?.state, JSON.stringify(b?.active), 'net', this.scale.netG);
       if (!b) return undefined;
       if (b.state === 'saved' || b.state === 'abandoned') return b;
       if (b.state === 'interrupted') {
