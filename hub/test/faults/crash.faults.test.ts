@@ -39,7 +39,8 @@ const table: Row[] = [];
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const trace = (...args: unknown[]) => {
-  if (process.env.TARELINE_FAULT_TRACE) console.log(new Date().toISOString().slice(11, 23), ...args);
+  if (process.env.TARELINE_FAULT_TRACE)
+    console.log(new Date().toISOString().slice(11, 23), ...args);
 };
 
 async function until<T>(
@@ -86,6 +87,7 @@ class Bench {
 
   /** Starts the hub on the same data folder; a lock left by a killed hub must not hold it up. */
   async startHub(): Promise<void> {
+    const unplugged = !this.scale.plugged;
     this.hub = await startBuiltHub(this.dataDir, {
       TARELINE_SCALE: `tcp://127.0.0.1:${this.adapter.port}?format=headered`,
       TARELINE_SAVE_DWELL_MS: '1000',
@@ -96,6 +98,8 @@ class Bench {
       badge: 'HR-1003',
     });
     this.token = signIn.body.token;
+    // A balance whose cable is out stays out until the operator plugs it back (in `finish`).
+    if (unplugged) return;
     await until('the scale online', async () => {
       const benches = await this.api<BenchSummary[]>('GET', '/api/benches');
       return benches.body.find((b) => b.id === 'bench-1')?.scale.state === 'online' || undefined;
