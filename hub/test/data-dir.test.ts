@@ -5,7 +5,7 @@ import { sql } from 'drizzle-orm';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { DataDirInUseError } from '../src/database/data-dir.js';
 import { Database } from '../src/database/database.js';
-import { tempDataDir } from './support/test-app.js';
+import { copyMigratedTemplate, tempDataDir } from './support/test-app.js';
 
 const migrations = join(import.meta.dirname, '..', '..', 'drizzle');
 
@@ -54,7 +54,7 @@ describe('data folder permissions, with a permissive umask', { timeout: 60_000 }
 
   it('closes up a folder whose files were left open to everyone', async () => {
     const dir = join(data.dir, 'copied');
-    await (await Database.open(dir, migrations)).close();
+    await copyMigratedTemplate(dir);
     // What an earlier hub (or a careless copy) left: everything readable and writable by all.
     for (const entry of await readdir(dir, { recursive: true, withFileTypes: true })) {
       await chmod(join(entry.parentPath, entry.name), entry.isDirectory() ? 0o777 : 0o666);
@@ -75,6 +75,7 @@ describe('data folder permissions, with a permissive umask', { timeout: 60_000 }
 describe('data folder lock', { timeout: 60_000 }, () => {
   it('opens at once after the hub holding the folder was killed', async () => {
     const data = await tempDataDir();
+    await copyMigratedTemplate(data.dir);
     const holder = spawn(
       process.execPath,
       ['--import', 'tsx', join(import.meta.dirname, 'support', 'hold-data-dir.ts'), data.dir],

@@ -17,7 +17,7 @@ import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 
 /** Fixed, so a failure is the same failure on every run. */
 const SEED = 0x7a4e11;
-const RANDOM_PROBES_PER_ROUTE = 40;
+const RANDOM_PROBES_PER_ROUTE = 20;
 
 type Role = 'admin' | 'operator';
 

@@ -57,6 +57,12 @@ export async function startTestHub(
   };
 }
 
+/** Fills an empty folder with a copy of the run's migrated template (no demo shop). */
+export async function copyMigratedTemplate(dir: string): Promise<void> {
+  const template = await templateFolder('migrated');
+  if (template) await cp(template, dir, { recursive: true });
+}
+
 /**
  * A data folder migrated (and seeded with the demo shop, for `demo`) once per run: opening and
  * migrating a new PGlite folder takes seconds, copying one a few milliseconds. The first worker
