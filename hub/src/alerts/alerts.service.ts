@@ -1,0 +1,149 @@
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import type {
+  AlertEvent,
+  AlertSubscription,
+  BatchEvent,
+  CaughtMail,
+  OutboxMessage,
+  Role,
+} from '@tareline/protocol';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { CLOCK, type Clock } from '../common/clock.js';
+import { NotApplicable, NotFound } from '../common/domain-errors.js';
+import { OnHubEvent } from '../events/hub-events.js';
+import { alertsFor } from './alert-rules.js';
+import { renderBatchAlert } from './alert-mail.js';
+import {
+  AlertsRepository,
+  type NewOutboxRow,
+  type OutboxRow,
+  type Recipient,
+} from './alerts.repository.js';
+import { MAIL_TRANSPORT, type MailTransport } from './mail-transport.js';
+import { DIGEST_OVER, DIGEST_WINDOW_MS, OutboxSender } from './outbox-sender.js';
+
+/** Alerts a person gets before choosing: leads hear of NO-GO batches. */
+export function defaultAlerts(role: Role): AlertEvent[] {
+  return role === 'lead' ? ['batch.no-go'] : [];
+}
+
+const chosen = (r: Recipient): AlertEvent[] => r.events ?? defaultAlerts(r.role);
+
+/**
+ * Turns batch changes into queued alert mails for the people who chose them, and answers the
+ * subscription and outbox routes. The outbox key names the event and the person, so hearing
+ * the same change twice (a repeated announcement, a restart) queues nothing new.
+ */
+@Injectable()
+export class AlertsService {
+  private readonly logger = new Logger('Alerts');
+
+  constructor(
+    @Inject(AlertsRepository) private readonly repo: AlertsRepository,
+    @Inject(OutboxSender) private readonly sender: OutboxSender,
+    @Inject(MAIL_TRANSPORT) private readonly transport: MailTransport,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    @Inject(CLOCK) private readonly clock: Clock,
+  ) {}
+
+  @OnHubEvent('batch.changed')
+  async onBatchChanged(event: BatchEvent): Promise<void> {
+    try {
+      await this.queueFor(event);
+    } catch (err) {
+      this.logger.error(
+        `Could not queue alerts of batch ${event.batch?.id}: ${err instanceof Error ? err.message : String(err)}`,
+      );
+    }
+  }
+
+  /** Queues the alerts a batch change calls for; answers how many rows were new. */
+  async queueFor(event: BatchEvent): Promise<number> {
+    const batch = event.batch;
+    if (!batch) return 0;
+    if (batch.state !== 'interrupted') {
+      // Resumed (or ended) in time: the interruption alert has nothing to say any more.
+      await this.repo.dropQueued(await this.repo.queuedInterruptionKeys(batch.id));
+    }
+    const alerts = alertsFor(batch, this.clock.now());
+    if (!alerts.length) return 0;
+    const recipients = await this.repo.recipients();
+    const benchName = await this.repo.benchName(batch.benchId);
+    const rows: NewOutboxRow[] = [];
+    const now = this.clock.now();
+    for (const alert of alerts) {
+      const mail = renderBatchAlert({
+        event: alert.event,
+        batch,
+        benchName,
+        publicUrl: this.config.mail.publicUrl,
+      });
+      for (const person of recipients) {
+        if (!person.email || !chosen(person).includes(alert.event)) continue;
+        rows.push({
+          key: `${alert.key}:${person.id}`,
+          event: alert.event,
+          personId: person.id,
+          to: person.email,
+          batchId: batch.id,
+          ...mail,
+          createdAt: new Date(now),
+          nextAttemptAt: new Date(await this.notBefore(person.email, alert.notBefore, now)),
+        });
+      }
+    }
+    const added = await this.repo.enqueue(rows);
+    if (added) this.sender.kick();
+    return added;
+  }
+
+  /**
+   * Past the flood limit, an alert waits for the end of the window so the ones piling up go
+   * as one digest instead of a mail each.
+   */
+  private async notBefore(to: string, notBefore: number, now: number): Promise<number> {
+    const recent = await this.repo.countSince(to, new Date(now - DIGEST_WINDOW_MS));
+    return recent >= DIGEST_OVER ? Math.max(notBefore, now + DIGEST_WINDOW_MS) : notBefore;
+  }
+
+  async subscription(personId: string): Promise<AlertSubscription> {
+    const person = await this.repo.recipient(personId);
+    if (!person) throw new NotFound('No such person');
+    return { personId, email: person.email, events: chosen(person) };
+  }
+
+  async subscribe(personId: string, events: AlertEvent[]): Promise<AlertSubscription> {
+    const person = await this.repo.recipient(personId);
+    if (!person) throw new NotFound('No such person');
+    await this.repo.setSubscription(personId, events);
+    return { personId, email: person.email, events };
+  }
+
+  async outbox(): Promise<OutboxMessage[]> {
+    return (await this.repo.list(200)).map(toMessage);
+  }
+
+  caughtMail(): CaughtMail[] {
+    if (!this.transport.catcher) {
+      throw new NotApplicable(
+        'Alerts go to the configured mail server; there is no local mail catcher',
+      );
+    }
+    return this.transport.catcher.list();
+  }
+}
+
+function toMessage(row: OutboxRow): OutboxMessage {
+  return {
+    id: row.id,
+    event: row.event,
+    to: row.to,
+    subject: row.subject,
+    status: row.status,
+    attempts: row.attempts,
+    lastError: row.lastError,
+    createdAt: row.createdAt.toISOString(),
+    nextAttemptAt: row.status === 'queued' ? (row.nextAttemptAt?.toISOString() ?? null) : null,
+    sentAt: row.sentAt?.toISOString() ?? null,
+  };
+}
