@@ -1,8 +1,6 @@
-import { EventEmitter2 } from '@nestjs/event-emitter';
 import type {
   AlertSubscription,
   Batch,
-  BatchEvent,
   OutboxMessage,
   CaughtMail,
   Material,
@@ -10,6 +8,14 @@ import type {
 } from '@tareline/protocol';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import { OutboxSender } from '../src/alerts/outbox-sender.js';
+import type { BatchRecord } from '../src/batches/batch-machine.js';
+import {
+  BatchesRepository,
+  detailOf,
+  recordOf,
+  toBatch,
+  type BatchRow,
+} from '../src/batches/batches.repository.js';
 import { MailCatcher } from '../src/alerts/mail-catcher.js';
 import { CLOCK, type Clock } from '../src/common/clock.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
@@ -70,6 +76,33 @@ class HeldClock {
   }
 }
 
+/** Starts a batch at bench-1 as an operator and abandons it; answers its number. */
+async function startAndAbandon(hub: TestHub): Promise<number> {
+  const joss = await badgeSignIn(hub, DEMO.joss.badge);
+  const token = joss.body.token;
+  const materials = await call<Material[]>(hub, 'GET', '/api/materials', { token });
+  const sc14 = materials.body.find((m) => m.name.includes('SC-14'))!;
+  const created = await call<Batch>(hub, 'POST', '/api/batches', {
+    token,
+    body: {
+      benchId: 'bench-1',
+      materialId: sc14.id,
+      totalMassG: 114,
+      lots: [
+        { part: 0, code: 'SC14R-2609' },
+        { part: 1, code: 'SC14H-2511' },
+      ],
+    },
+  });
+  expect(created.status).toBe(201);
+  const abandoned = await call(hub, 'POST', `/api/batches/${created.body.id}/abandon`, {
+    token,
+    body: { reason: 'Cup tipped over' },
+  });
+  expect(abandoned.status).toBe(201);
+  return created.body.id;
+}
+
 describe('alert mails through the durable outbox, to a real SMTP server', () => {
   let data: Awaited<ReturnType<typeof tempDataDir>>;
   let mail: TestMailServer;
@@ -92,10 +125,33 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     lead = await login(hub, DEMO.lead.email, DEMO.lead.password);
   }
 
-  /** Announces a batch change the way the batch rooms do, and waits for the listeners. */
-  async function announce(batch: Batch): Promise<void> {
-    const event: BatchEvent = { benchId: batch.benchId, batch };
-    await hub.app.get(EventEmitter2).emitAsync('batch.changed', event);
+  let template: BatchRow;
+
+  /**
+   * Writes a batch's new state through the batch repository, as the batch rooms do (a new batch,
+   * copied from a real one, when `batch.id` is not stored yet); answers the batch as stored.
+   */
+  async function store(batch: Batch): Promise<Batch> {
+    const repo = hub.app.get(BatchesRepository);
+    const row = (await repo.findById(batch.id)) ?? (await repo.insert(template));
+    const rec: BatchRecord = {
+      ...recordOf(row),
+      state: batch.state,
+      resumeState: batch.state === 'interrupted' ? 'weighing-b' : null,
+      verdict: batch.verdict,
+      ratioDeviationPct: batch.ratioDeviationPct,
+      abandonReason: batch.abandonReason,
+      interruptedReason: batch.interruptedReason,
+      steps: batch.steps,
+    };
+    const written = await repo.writeRecord(row.id, rec, detailOf(row), []);
+    return toBatch(written, recordOf(written));
+  }
+
+  /** A real batch, started and abandoned at the bench, whose row the stored batches copy. */
+  async function makeTemplate(): Promise<BatchRow> {
+    const id = await startAndAbandon(hub);
+    return (await hub.app.get(BatchesRepository).findById(id))!;
   }
 
   const flush = () => hub.app.get(OutboxSender).flush();
@@ -115,6 +171,7 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     mail = new TestMailServer();
     await mail.up();
     await startHub();
+    template = await makeTemplate();
   });
 
   beforeEach(() => {
@@ -164,9 +221,12 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
 
   it('mails a NO-GO batch once to each subscriber and to nobody else', async () => {
     await subscribe(admin, ['batch.abandoned']); // not NO-GO: gets nothing
-    const batch = sampleBatch({ id: nextBatchId });
-    await announce(batch);
-    await announce(batch); // announced twice (a repeated event): still one mail each
+    const batch = await store(sampleBatch({ id: nextBatchId }));
+    // The written row's alerts are in the outbox when the write returns: same transaction.
+    expect(await outboxFor(DEMO.lead.email)).toContainEqual(
+      expect.objectContaining({ subject: expect.stringContaining(`#${batch.id},`) }),
+    );
+    await store(batch); // the same state written twice: still one mail each
     await flush();
     const toLead = mail.to(DEMO.lead.email).filter((m) => m.subject.includes(`#${batch.id}`));
     expect(toLead).toHaveLength(1);
@@ -176,7 +236,9 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     expect(toLead[0]!.text).toContain(
       `Open the batch: http://hub.hollin-ridge.example/review/batches/${batch.id}`,
     );
-    expect(toLead[0]!.text).toContain('+3.20 % off ratio, band ±2.0 %, outside the band');
+    expect(toLead[0]!.text).toContain(
+      `+3.20 % off ratio, band ±${batch.tolerancePct.toFixed(1)} %, outside the band`,
+    );
     expect(mail.to(DEMO.admin.email).filter((m) => m.subject.includes(`#${batch.id}`))).toEqual([]);
     expect(await outboxFor(DEMO.lead.email)).toContainEqual(
       expect.objectContaining({ status: 'sent', attempts: 1, lastError: null }),
@@ -186,13 +248,14 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
   it('keeps a mail while the SMTP server is down and sends it once when it is back', async () => {
     await subscribe(admin, ['batch.abandoned']);
     await mail.down();
-    const batch = sampleBatch({
-      id: nextBatchId,
-      state: 'abandoned',
-      verdict: null,
-      abandonReason: 'Cup tipped over',
-    });
-    await announce(batch);
+    const batch = await store(
+      sampleBatch({
+        id: nextBatchId,
+        state: 'abandoned',
+        verdict: null,
+        abandonReason: 'Cup tipped over',
+      }),
+    );
     await flush();
     const [queued] = await outboxFor(DEMO.admin.email);
     expect(queued).toMatchObject({ status: 'queued', attempts: 1 });
@@ -217,7 +280,7 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
       body: { name: 'Nobody Here', role: 'lead', email: NOBODY, password: 'nobody-here-pw' },
     });
     expect(created.status).toBe(201);
-    await announce(sampleBatch({ id: nextBatchId }));
+    await store(sampleBatch({ id: nextBatchId }));
     await flush();
     const [row] = await outboxFor(NOBODY);
     expect(row).toMatchObject({ status: 'failed', attempts: 1, nextAttemptAt: null });
@@ -233,8 +296,7 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
   it('gives up after a day of retries with the last error, when the server never comes back', async () => {
     await subscribe(admin, ['batch.abandoned']);
     await mail.down();
-    const batch = sampleBatch({ id: nextBatchId, state: 'abandoned', verdict: null });
-    await announce(batch);
+    const batch = await store(sampleBatch({ id: nextBatchId, state: 'abandoned', verdict: null }));
     for (let hour = 0; hour < 26; hour += 1) {
       await flush();
       clock.advance(60 * MIN);
@@ -254,14 +316,18 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
 
   it('mails an interruption only when nobody resumed the batch within 15 minutes', async () => {
     await subscribe(admin, ['batch.interrupted']);
-    const id = nextBatchId;
     const at = (ms: number) => new Date(ms).toISOString();
     const start = clock.now();
-    await announce(
-      sampleBatch({ id, state: 'interrupted', verdict: null, steps: { interrupted: at(start) } }),
+    const { id } = await store(
+      sampleBatch({
+        id: nextBatchId,
+        state: 'interrupted',
+        verdict: null,
+        steps: { interrupted: at(start) },
+      }),
     );
     clock.advance(10 * MIN);
-    await announce(
+    await store(
       sampleBatch({
         id,
         state: 'weighing-b',
@@ -271,7 +337,7 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     );
     clock.advance(10 * MIN);
     const again = start + 20 * MIN;
-    await announce(
+    await store(
       sampleBatch({
         id,
         state: 'interrupted',
@@ -297,8 +363,10 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     const ids: number[] = [];
     for (let n = 0; n < 14; n += 1) {
       nextBatchId += 1;
-      ids.push(nextBatchId);
-      await announce(sampleBatch({ id: nextBatchId, state: 'abandoned', verdict: null }));
+      const stored = await store(
+        sampleBatch({ id: nextBatchId, state: 'abandoned', verdict: null }),
+      );
+      ids.push(stored.id);
       await flush();
     }
     expect(mail.to(DEMO.admin.email).length - before).toBe(10);
@@ -314,8 +382,7 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     await subscribe(admin, ['batch.no-go']);
     clock.advance(60 * MIN); // clear of the digest test's flood
     await mail.down();
-    const batch = sampleBatch({ id: nextBatchId });
-    await announce(batch);
+    const batch = await store(sampleBatch({ id: nextBatchId }));
     await flush();
     expect((await outboxFor(DEMO.admin.email))[0]).toMatchObject({ status: 'queued' });
     await hub.close();
@@ -349,30 +416,9 @@ describe('the local mail catcher, with no SMTP server configured', () => {
       token: admin,
       body: { events: ['batch.abandoned'] },
     });
-    const joss = await badgeSignIn(hub, DEMO.joss.badge);
-    const token = joss.body.token;
-    const materials = await call<Material[]>(hub, 'GET', '/api/materials', { token });
-    const sc14 = materials.body.find((m) => m.name.includes('SC-14'))!;
-    const created = await call<Batch>(hub, 'POST', '/api/batches', {
-      token,
-      body: {
-        benchId: 'bench-1',
-        materialId: sc14.id,
-        totalMassG: 114,
-        lots: [
-          { part: 0, code: 'SC14R-2609' },
-          { part: 1, code: 'SC14H-2511' },
-        ],
-      },
-    });
-    expect(created.status).toBe(201);
-    const abandoned = await call(hub, 'POST', `/api/batches/${created.body.id}/abandon`, {
-      token,
-      body: { reason: 'Cup tipped over' },
-    });
-    expect(abandoned.status).toBe(201);
+    const id = await startAndAbandon(hub);
 
-    // The batch rooms announce the change without waiting for listeners: wait for its row.
+    // Sent in the background once the batch is announced: wait until it went.
     let outbox: OutboxMessage[] = [];
     for (let tries = 0; tries < 200 && !outbox.some((m) => m.status === 'sent'); tries += 1) {
       await hub.app.get(OutboxSender).flush();
@@ -387,7 +433,7 @@ describe('the local mail catcher, with no SMTP server configured', () => {
     expect(caught.body).toHaveLength(1);
     expect(caught.body[0]).toMatchObject({
       to: [DEMO.admin.email],
-      subject: `Tareline: A batch abandoned - batch #${created.body.id}, Bench 1, ${sc14.name}`,
+      subject: `Tareline: A batch abandoned - batch #${id}, Bench 1, Grey surface-coat epoxy SC-14`,
     });
     expect(caught.body[0]!.text).toContain('Why abandoned: Cup tipped over');
     expect(caught.body[0]!.text).toContain('Operator: Joss Whitcombe');

@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { BatchesModule } from '../batches/batches.module.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { AlertsController } from './alerts.controller.js';
 import { AlertsRepository } from './alerts.repository.js';
@@ -7,10 +8,11 @@ import { createMailTransport, MAIL_TRANSPORT } from './mail-transport.js';
 import { OutboxSender } from './outbox-sender.js';
 
 /**
- * Alert mails: batch changes become rows of a durable outbox for the people who chose them; a
+ * Alert mails: batch writes also store rows of a durable outbox (one transaction) for the people who chose them; a
  * sender delivers them (the configured SMTP server, or a local mail catcher) with retries.
  */
 @Module({
+  imports: [BatchesModule],
   controllers: [AlertsController],
   providers: [
     AlertsRepository,

@@ -14,7 +14,7 @@ import {
   sql,
   type SQL,
 } from 'drizzle-orm';
-import { Database } from '../database/database.js';
+import { Database, type DbOrTx } from '../database/database.js';
 import { alertSubscriptions, benches, outbox, people } from '../database/schema/index.js';
 
 export type OutboxRow = typeof outbox.$inferSelect;
@@ -38,10 +38,12 @@ export class AlertsRepository {
     return this.database.db;
   }
 
+  // Methods taking `db` join the caller's transaction (a batch write) when given one.
+
   /** Queues rows; a row whose key is already there (the event was seen before) is skipped. */
-  async enqueue(rows: NewOutboxRow[]): Promise<number> {
+  async enqueue(rows: NewOutboxRow[], db: DbOrTx = this.db): Promise<number> {
     if (!rows.length) return 0;
-    const inserted = await this.db
+    const inserted = await db
       .insert(outbox)
       .values(rows)
       .onConflictDoNothing({ target: outbox.key })
@@ -50,16 +52,16 @@ export class AlertsRepository {
   }
 
   /** Drops still-unsent rows of these keys (an interrupted batch resumed in time). */
-  async dropQueued(keys: string[]): Promise<void> {
+  async dropQueued(keys: string[], db: DbOrTx = this.db): Promise<void> {
     if (!keys.length) return;
-    await this.db
+    await db
       .delete(outbox)
       .where(and(inArray(outbox.key, keys), eq(outbox.status, 'queued'), eq(outbox.attempts, 0)));
   }
 
   /** Keys of queued interruption alerts of one batch. */
-  async queuedInterruptionKeys(batchId: number): Promise<string[]> {
-    const rows = await this.db
+  async queuedInterruptionKeys(batchId: number, db: DbOrTx = this.db): Promise<string[]> {
+    const rows = await db
       .select({ key: outbox.key })
       .from(outbox)
       .where(
@@ -87,8 +89,8 @@ export class AlertsRepository {
   }
 
   /** How many alerts went to or wait for this address since `since` (the flood check). */
-  async countSince(to: string, since: Date): Promise<number> {
-    const [row] = await this.db
+  async countSince(to: string, since: Date, db: DbOrTx = this.db): Promise<number> {
+    const [row] = await db
       .select({ n: sql<number>`count(*)::int` })
       .from(outbox)
       .where(and(eq(outbox.to, to), gte(outbox.createdAt, since)));
@@ -132,8 +134,8 @@ export class AlertsRepository {
   }
 
   /** Active people with an e-mail address and their chosen alerts (null: not chosen yet). */
-  recipients(): Promise<Recipient[]> {
-    return this.peopleWithChoices(and(eq(people.active, true), isNotNull(people.email))!);
+  recipients(db: DbOrTx = this.db): Promise<Recipient[]> {
+    return this.peopleWithChoices(and(eq(people.active, true), isNotNull(people.email))!, db);
   }
 
   async recipient(personId: string): Promise<Recipient | undefined> {
@@ -141,8 +143,8 @@ export class AlertsRepository {
     return row;
   }
 
-  private async peopleWithChoices(where: SQL): Promise<Recipient[]> {
-    const rows = await this.db
+  private async peopleWithChoices(where: SQL, db: DbOrTx = this.db): Promise<Recipient[]> {
+    const rows = await db
       .select({
         id: people.id,
         email: people.email,
@@ -165,8 +167,8 @@ export class AlertsRepository {
       });
   }
 
-  async benchName(benchId: string): Promise<string> {
-    const [row] = await this.db
+  async benchName(benchId: string, db: DbOrTx = this.db): Promise<string> {
+    const [row] = await db
       .select({ name: benches.name })
       .from(benches)
       .where(eq(benches.id, benchId));

@@ -1,13 +1,15 @@
-import { Inject, Injectable, Logger } from '@nestjs/common';
+import { Inject, Injectable, type OnModuleInit } from '@nestjs/common';
 import type {
   AlertEvent,
   AlertSubscription,
-  BatchEvent,
+  Batch,
   CaughtMail,
   OutboxMessage,
   Role,
 } from '@tareline/protocol';
+import { BatchesRepository, recordOf, toBatch } from '../batches/batches.repository.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import type { DbOrTx } from '../database/database.js';
 import { CLOCK, type Clock } from '../common/clock.js';
 import { NotApplicable, NotFound } from '../common/domain-errors.js';
 import { OnHubEvent } from '../events/hub-events.js';
@@ -30,47 +32,45 @@ export function defaultAlerts(role: Role): AlertEvent[] {
 const chosen = (r: Recipient): AlertEvent[] => r.events ?? defaultAlerts(r.role);
 
 /**
- * Turns batch changes into queued alert mails for the people who chose them, and answers the
- * subscription and outbox routes. The outbox key names the event and the person, so hearing
- * the same change twice (a repeated announcement, a restart) queues nothing new.
+ * Turns batch changes into queued alert mails for the people who chose them, in the same
+ * transaction as the batch's new state, and answers the subscription and outbox routes. The
+ * outbox key names the event and the person, so one event never queues a second mail.
  */
 @Injectable()
-export class AlertsService {
-  private readonly logger = new Logger('Alerts');
-
+export class AlertsService implements OnModuleInit {
   constructor(
     @Inject(AlertsRepository) private readonly repo: AlertsRepository,
     @Inject(OutboxSender) private readonly sender: OutboxSender,
     @Inject(MAIL_TRANSPORT) private readonly transport: MailTransport,
+    @Inject(BatchesRepository) private readonly batches: BatchesRepository,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @Inject(CLOCK) private readonly clock: Clock,
   ) {}
 
-  @OnHubEvent('batch.changed')
-  async onBatchChanged(event: BatchEvent): Promise<void> {
-    try {
-      await this.queueFor(event);
-    } catch (err) {
-      this.logger.error(
-        `Could not queue alerts of batch ${event.batch?.id}: ${err instanceof Error ? err.message : String(err)}`,
-      );
-    }
+  onModuleInit(): void {
+    this.batches.onRecordWrite(async (tx, row) => {
+      await this.queueFor(toBatch(row, recordOf(row)), tx);
+    });
   }
 
-  /** Queues the alerts a batch change calls for; answers how many rows were new. */
-  async queueFor(event: BatchEvent): Promise<number> {
-    const batch = event.batch;
-    if (!batch) return 0;
+  /** The batch's rows are committed by the time it is announced: send them now. */
+  @OnHubEvent('batch.changed')
+  onBatchChanged(): void {
+    this.sender.kick();
+  }
+
+  /** Queues the alerts a batch's new state calls for; answers how many rows were new. */
+  async queueFor(batch: Batch, db: DbOrTx): Promise<number> {
     if (batch.state !== 'interrupted') {
       // Resumed (or ended) in time: the interruption alert has nothing to say any more.
-      await this.repo.dropQueued(await this.repo.queuedInterruptionKeys(batch.id));
+      await this.repo.dropQueued(await this.repo.queuedInterruptionKeys(batch.id, db), db);
     }
-    const alerts = alertsFor(batch, this.clock.now());
-    if (!alerts.length) return 0;
-    const recipients = await this.repo.recipients();
-    const benchName = await this.repo.benchName(batch.benchId);
-    const rows: NewOutboxRow[] = [];
     const now = this.clock.now();
+    const alerts = alertsFor(batch, now);
+    if (!alerts.length) return 0;
+    const recipients = await this.repo.recipients(db);
+    const benchName = await this.repo.benchName(batch.benchId, db);
+    const rows: NewOutboxRow[] = [];
     for (const alert of alerts) {
       const mail = renderBatchAlert({
         event: alert.event,
@@ -88,21 +88,19 @@ export class AlertsService {
           batchId: batch.id,
           ...mail,
           createdAt: new Date(now),
-          nextAttemptAt: new Date(await this.notBefore(person.email, alert.notBefore, now)),
+          nextAttemptAt: new Date(await this.notBefore(person.email, alert.notBefore, now, db)),
         });
       }
     }
-    const added = await this.repo.enqueue(rows);
-    if (added) this.sender.kick();
-    return added;
+    return this.repo.enqueue(rows, db);
   }
 
   /**
    * Past the flood limit, an alert waits for the end of the window so the ones piling up go
    * as one digest instead of a mail each.
    */
-  private async notBefore(to: string, notBefore: number, now: number): Promise<number> {
-    const recent = await this.repo.countSince(to, new Date(now - DIGEST_WINDOW_MS));
+  private async notBefore(to: string, notBefore: number, now: number, db: DbOrTx): Promise<number> {
+    const recent = await this.repo.countSince(to, new Date(now - DIGEST_WINDOW_MS), db);
     return recent >= DIGEST_OVER ? Math.max(notBefore, now + DIGEST_WINDOW_MS) : notBefore;
   }
 
