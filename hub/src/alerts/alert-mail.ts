@@ -61,7 +61,7 @@ function batchFacts(f: BatchAlertFacts): Array<[string, string]> {
             .join(', ')
         : 'none recorded',
     ],
-    ['Verdict', b.verdict ?? b.state],
+    b.verdict ? ['Verdict', b.verdict] : ['State', b.state],
     ['Deviation', deviationLine(b).replace(/^Deviation: /, '')],
   ];
   if (b.noGoReason) facts.push(['Why NO-GO', b.noGoReason]);
