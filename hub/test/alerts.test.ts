@@ -7,6 +7,7 @@ import type {
   Person,
 } from '@tareline/protocol';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
+import { DailySummary } from '../src/alerts/daily-summary.js';
 import { OutboxSender } from '../src/alerts/outbox-sender.js';
 import type { BatchRecord } from '../src/batches/batch-machine.js';
 import {
@@ -112,8 +113,12 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
   const clock = new HeldClock();
   let nextBatchId = 9000;
 
+  // Two hours after the test's start, in the hub's local time.
+  const SUMMARY_HOUR = (new Date(clock.now()).getHours() + 2) % 24;
+
   async function startHub(): Promise<void> {
     hub = await startTestHub(data.dir, {
+      TARELINE_SUMMARY_HOUR: String(SUMMARY_HOUR),
       TARELINE_SMTP_URL: `smtp://127.0.0.1:${mail.port}`,
       TARELINE_PUBLIC_URL: 'http://hub.hollin-ridge.example',
       TARELINE_SIGN_IN_LIMIT: '1000',
@@ -189,9 +194,12 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     await data?.remove();
   });
 
-  it('gives leads NO-GO alerts by default and the others none, until they choose', async () => {
+  it('gives leads NO-GO alerts and the daily summary by default and the others none, until they choose', async () => {
     const mine = await call<AlertSubscription>(hub, 'GET', '/api/me/alerts', { token: lead });
-    expect(mine.body).toMatchObject({ email: DEMO.lead.email, events: ['batch.no-go'] });
+    expect(mine.body).toMatchObject({
+      email: DEMO.lead.email,
+      events: ['batch.no-go', 'summary.daily'],
+    });
     const adminOwn = await call<AlertSubscription>(hub, 'GET', '/api/me/alerts', { token: admin });
     expect(adminOwn.body.events).toEqual([]);
     const chosen = await subscribe(admin, ['batch.abandoned', 'batch.no-go', 'batch.no-go']);
@@ -217,6 +225,29 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
       body: { events: [] },
     });
     expect(refused.status).toBe(403);
+  });
+
+  it('mails the daily summary once, in its hour: batches, GO share, NO-GO batches', async () => {
+    await subscribe(lead, ['summary.daily']);
+    await store(sampleBatch({ id: nextBatchId, verdict: 'GO', ratioDeviationPct: 0.4 }));
+    const noGo = await store(sampleBatch({ id: nextBatchId + 5000 }));
+    const summary = hub.app.get(DailySummary);
+    expect(await summary.tick()).toBe(0); // not its hour yet
+    while (new Date(clock.now()).getHours() !== SUMMARY_HOUR) clock.advance(10 * MIN);
+    expect(await summary.tick()).toBe(1); // the lead; the admin did not ask for it
+    expect(await summary.tick()).toBe(0);
+    await flush();
+    const got = mail.to(DEMO.lead.email).filter((m) => m.subject.startsWith('Tareline daily'));
+    expect(got).toHaveLength(1);
+    // The bench's abandoned batch and the two saved here: 1 GO of 2 saved.
+    expect(got[0]!.subject).toMatch(/^Tareline daily summary \d{4}-\d\d-\d\d: 3 batches, 50 % GO$/);
+    expect(got[0]!.text).toContain('Saved: 2 (GO 1, NO-GO 1); abandoned: 1');
+    expect(got[0]!.text).toContain(
+      `#${noGo.id} ${noGo.materialName} (bench-1): http://hub.hollin-ridge.example/review/batches/${noGo.id}`,
+    );
+    expect(mail.to(DEMO.admin.email).filter((m) => m.subject.startsWith('Tareline daily'))).toEqual(
+      [],
+    );
   });
 
   it('mails a NO-GO batch once to each subscriber and to nobody else', async () => {

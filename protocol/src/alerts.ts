@@ -10,6 +10,7 @@ export const alertEventSchema = z.enum([
   'batch.abandoned',
   'batch.lot-warning',
   'batch.interrupted',
+  'summary.daily',
 ]);
 export type AlertEvent = z.infer<typeof alertEventSchema>;
 export const ALERT_EVENTS = alertEventSchema.options;
@@ -20,6 +21,7 @@ export const ALERT_EVENT_LABELS: Record<AlertEvent, string> = {
   'batch.abandoned': 'A batch abandoned',
   'batch.lot-warning': 'A batch saved with an expired or long-open lot',
   'batch.interrupted': 'A batch interrupted and not resumed within 15 minutes',
+  'summary.daily': 'A daily summary: batches, GO share, NO-GO batches',
 };
 
 /** Body of `PUT /api/me/alerts` and `PUT /api/people/:id/alerts`: the whole new choice. */

@@ -110,3 +110,51 @@ export function renderDigest(items: ReadonlyArray<{ subject: string; text: strin
     .join('')}</body></html>`;
   return { subject, text, html };
 }
+
+/** A batch as the daily summary counts it. */
+export interface BatchOutcome {
+  id: number;
+  state: string;
+  verdict: string | null;
+  benchId: string;
+  materialName: string;
+}
+
+/** The leads' daily summary: batches finished in the last 24 hours, GO share, NO-GO batches. */
+export function renderDailySummary(
+  day: string,
+  outcomes: readonly BatchOutcome[],
+  publicUrl: string,
+): MailContent {
+  const saved = outcomes.filter((b) => b.state === 'saved');
+  const go = saved.filter((b) => b.verdict === 'GO').length;
+  const noGo = saved.filter((b) => b.verdict === 'NO-GO');
+  const abandoned = outcomes.length - saved.length;
+  const share = saved.length ? `${Math.round((go / saved.length) * 100)} % GO` : 'none saved';
+  const subject = `Tareline daily summary ${day}: ${outcomes.length} ${outcomes.length === 1 ? 'batch' : 'batches'}, ${share}`;
+  const lines = [
+    `Batches finished in the last 24 hours: ${outcomes.length}`,
+    `Saved: ${saved.length} (GO ${go}, NO-GO ${noGo.length}); abandoned: ${abandoned}`,
+    `GO share of saved batches: ${share}`,
+    '',
+    noGo.length ? 'NO-GO batches to decide on:' : 'No NO-GO batches.',
+    ...noGo.map(
+      (b) => `  #${b.id} ${b.materialName} (${b.benchId}): ${batchLink(publicUrl, b.id)}`,
+    ),
+    '',
+  ];
+  const html = `<!doctype html><html><body><h1>${escapeHtml(subject)}</h1>${lines
+    .slice(0, 3)
+    .map((l) => `<p>${escapeHtml(l)}</p>`)
+    .join('')}${
+    noGo.length
+      ? `<h2>NO-GO batches to decide on</h2><ul>${noGo
+          .map(
+            (b) =>
+              `<li><a href="${escapeHtml(batchLink(publicUrl, b.id))}">#${b.id}</a> ${escapeHtml(b.materialName)} (${escapeHtml(b.benchId)})</li>`,
+          )
+          .join('')}</ul>`
+      : '<p>No NO-GO batches.</p>'
+  }</body></html>`;
+  return { subject, text: lines.join('\n'), html };
+}

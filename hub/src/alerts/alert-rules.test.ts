@@ -5,7 +5,7 @@ import {
   INTERRUPTED_GRACE_MS,
   nextAttemptAfterFailure,
 } from './alert-rules.js';
-import { deviationLine, renderBatchAlert } from './alert-mail.js';
+import { deviationLine, renderBatchAlert, renderDailySummary } from './alert-mail.js';
 import { MIN, NOW, sampleBatch } from '../../test/support/sample-batch.js';
 
 describe('which batch changes are worth a mail', () => {
@@ -97,5 +97,17 @@ describe('the alert mail', () => {
     expect(deviationLine(sampleBatch({ ratioDeviationPct: null }))).toBe(
       'Deviation: not measured (band ±2.0 %)',
     );
+  });
+});
+
+describe('the daily summary', () => {
+  it('says when nothing was saved instead of a GO share of nothing', () => {
+    const mail = renderDailySummary(
+      '2026-12-02',
+      [{ id: 7, state: 'abandoned', verdict: null, benchId: 'bench-1', materialName: 'SC-14' }],
+      'http://hub',
+    );
+    expect(mail.subject).toBe('Tareline daily summary 2026-12-02: 1 batch, none saved');
+    expect(mail.text).toContain('No NO-GO batches.');
   });
 });

@@ -5,6 +5,7 @@ import { AlertsController } from './alerts.controller.js';
 import { AlertsRepository } from './alerts.repository.js';
 import { AlertsService } from './alerts.service.js';
 import { createMailTransport, MAIL_TRANSPORT } from './mail-transport.js';
+import { DailySummary } from './daily-summary.js';
 import { OutboxSender } from './outbox-sender.js';
 
 /**
@@ -23,6 +24,7 @@ import { OutboxSender } from './outbox-sender.js';
     },
     OutboxSender,
     AlertsService,
+    DailySummary,
   ],
 })
 export class AlertsModule {}

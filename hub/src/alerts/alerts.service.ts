@@ -24,12 +24,13 @@ import {
 import { MAIL_TRANSPORT, type MailTransport } from './mail-transport.js';
 import { DIGEST_OVER, DIGEST_WINDOW_MS, OutboxSender } from './outbox-sender.js';
 
-/** Alerts a person gets before choosing: leads hear of NO-GO batches. */
+/** Alerts a person gets before choosing: leads hear of NO-GO batches and get the daily summary. */
 export function defaultAlerts(role: Role): AlertEvent[] {
-  return role === 'lead' ? ['batch.no-go'] : [];
+  return role === 'lead' ? ['batch.no-go', 'summary.daily'] : [];
 }
 
-const chosen = (r: Recipient): AlertEvent[] => r.events ?? defaultAlerts(r.role);
+/** A person's own choice, or the default of their role. */
+export const chosenAlerts = (r: Recipient): AlertEvent[] => r.events ?? defaultAlerts(r.role);
 
 /**
  * Turns batch changes into queued alert mails for the people who chose them, in the same
@@ -79,7 +80,7 @@ export class AlertsService implements OnModuleInit {
         publicUrl: this.config.mail.publicUrl,
       });
       for (const person of recipients) {
-        if (!person.email || !chosen(person).includes(alert.event)) continue;
+        if (!person.email || !chosenAlerts(person).includes(alert.event)) continue;
         rows.push({
           key: `${alert.key}:${person.id}`,
           event: alert.event,
@@ -107,7 +108,7 @@ export class AlertsService implements OnModuleInit {
   async subscription(personId: string): Promise<AlertSubscription> {
     const person = await this.repo.recipient(personId);
     if (!person) throw new NotFound('No such person');
-    return { personId, email: person.email, events: chosen(person) };
+    return { personId, email: person.email, events: chosenAlerts(person) };
   }
 
   async subscribe(personId: string, events: AlertEvent[]): Promise<AlertSubscription> {

@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
-import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { and, desc, eq, gte, inArray, sql, type SQL } from 'drizzle-orm';
 import { Database, type DbOrTx } from '../database/database.js';
 import { batches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
@@ -225,6 +225,23 @@ export class BatchesRepository implements BatchStore {
       .select()
       .from(batches)
       .where(inArray(batches.state, [...WEIGHING_STATES, 'interrupted']));
+  }
+
+  /** Number, state and verdict of the batches saved or abandoned since `since`. */
+  outcomesSince(
+    since: Date,
+  ): Promise<Array<Pick<BatchRow, 'id' | 'state' | 'verdict' | 'benchId' | 'materialName'>>> {
+    return this.db
+      .select({
+        id: batches.id,
+        state: batches.state,
+        verdict: batches.verdict,
+        benchId: batches.benchId,
+        materialName: batches.materialName,
+      })
+      .from(batches)
+      .where(and(inArray(batches.state, ['saved', 'abandoned']), gte(batches.updatedAt, since)))
+      .orderBy(batches.id);
   }
 
   list(filter: BatchListFilter): Promise<BatchRow[]> {
