@@ -1,3 +1,4 @@
+import { Logger } from '@nestjs/common';
 import nodemailer from 'nodemailer';
 import type { AppConfig } from '../config/app-config.js';
 import { MailCatcher } from './mail-catcher.js';
@@ -36,14 +37,20 @@ const TIMEOUTS = { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTim
 
 /** Builds the transport of the configuration; with no SMTP URL, starts the local catcher. */
 export async function createMailTransport(config: AppConfig['mail']): Promise<MailTransport> {
+  const logger = new Logger('Mail');
   let catcher: MailCatcher | null = null;
   let options: Parameters<typeof nodemailer.createTransport>[0];
   if (config.smtpUrl) {
     options = { url: config.smtpUrl, ...TIMEOUTS };
+    // The host only: the URL carries the server's password.
+    logger.log(`Alert mails go to ${new URL(config.smtpUrl).host}`);
   } else {
     catcher = new MailCatcher();
     const port = await catcher.start();
     options = { host: '127.0.0.1', port, secure: false, ignoreTLS: true, ...TIMEOUTS };
+    logger.log(
+      `No TARELINE_SMTP_URL: alert mails go to the local mail catcher (127.0.0.1:${port})`,
+    );
   }
   const transporter = nodemailer.createTransport(options);
   return {

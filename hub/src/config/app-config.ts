@@ -102,7 +102,10 @@ const envSchema = z.object({
     .optional(),
   TARELINE_MAIL_FROM: z
     .string()
-    .min(3, 'must be an e-mail address')
+    .regex(
+      /^(?:[^<>]*<[^\s@<>]+@[^\s@<>]+>|[^\s@<>]+@[^\s@<>]+)$/,
+      'must be an e-mail address, alone or as Name <address>',
+    )
     .default('Tareline <tareline@localhost>'),
   TARELINE_PUBLIC_URL: z
     .url({ protocol: /^https?$/, error: 'must be an http:// or https:// address' })
