@@ -276,6 +276,24 @@ describe('alert mails through the durable outbox, to a real SMTP server', () => 
     );
   });
 
+  it('stores no alert when the batch write it belongs to is rolled back', async () => {
+    const repo = hub.app.get(BatchesRepository);
+    const fresh = await repo.insert(template);
+    // A later part of the same write fails (as a full disk would): the whole transaction goes.
+    let failing = true;
+    repo.onRecordWrite(async () => {
+      if (failing) throw new Error('disk full');
+    });
+    try {
+      await expect(store(sampleBatch({ id: fresh.id }))).rejects.toThrow('disk full');
+    } finally {
+      failing = false;
+    }
+    expect((await repo.findById(fresh.id))!.state).toBe(template.state);
+    const rows = await outboxFor(DEMO.lead.email);
+    expect(rows.filter((m) => m.subject.includes(`#${fresh.id},`))).toEqual([]);
+  });
+
   it('keeps a mail while the SMTP server is down and sends it once when it is back', async () => {
     await subscribe(admin, ['batch.abandoned']);
     await mail.down();
