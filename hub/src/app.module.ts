@@ -1,6 +1,7 @@
 import { DynamicModule, Module } from '@nestjs/common';
 import { ServeStaticModule } from '@nestjs/serve-static';
 import type { AppConfig } from './config/app-config.js';
+import { AlertsModule } from './alerts/alerts.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { BackupModule } from './backup/backup.module.js';
 import { ConfigModule } from './config/config.module.js';
@@ -36,6 +37,7 @@ export class AppModule {
         DemoModule,
         BatchesModule,
         BackupModule,
+        AlertsModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({
           rootPath: config.paths.station,

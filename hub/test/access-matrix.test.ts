@@ -26,6 +26,12 @@ const EXPECTED: Record<string, 'public' | readonly Role[]> = {
   'PUT /api/people/:id/badge': ['admin'],
   'PUT /api/people/:id/pin': ['admin'],
   'PUT /api/people/:id/password': ['admin'],
+  'GET /api/me/alerts': EVERYONE_SIGNED_IN,
+  'PUT /api/me/alerts': EVERYONE_SIGNED_IN,
+  'GET /api/people/:id/alerts': ['admin'],
+  'PUT /api/people/:id/alerts': ['admin'],
+  'GET /api/outbox': ['admin'],
+  'GET /api/mail-catcher': ['admin'],
   'POST /api/plan': 'public',
   'GET /api/benches': EVERYONE_SIGNED_IN,
   // Pours and unplugs as a person at the bench would: signed in, at that bench for operators.

@@ -11,3 +11,4 @@ export * from './auth.js';
 export * from './scale-link.js';
 export * from './benches.js';
 export * from './scale-stability.js';
+export * from './alerts.js';

@@ -16,6 +16,7 @@ import { BenchSessions } from './bench-sessions.js';
   imports: [ScalesModule, MaterialsModule],
   controllers: [BatchesController],
   providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService],
-  exports: [BatchesService],
+  // The repository for features that store their own rows with a batch's (alerts).
+  exports: [BatchesService, BatchesRepository],
 })
 export class BatchesModule {}

@@ -1,7 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
-import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
-import { Database } from '../database/database.js';
+import { and, desc, eq, gte, inArray, sql, type SQL } from 'drizzle-orm';
+import { Database, type DbOrTx } from '../database/database.js';
 import { batches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
 import { encodeTrace, type TracePoint } from './pour-trace.js';
@@ -124,10 +124,23 @@ export interface BatchStore {
   list(filter: BatchListFilter): Promise<BatchRow[]>;
 }
 
+/**
+ * Work another feature stores in the same transaction as a batch's new state (alerts queue
+ * their mails), so both are written or neither. It gets the row as it will be committed.
+ */
+export type BatchWriteHook = (tx: DbOrTx, row: BatchRow) => Promise<void>;
+
 /** The only place that talks SQL about batches. */
 @Injectable()
 export class BatchesRepository implements BatchStore {
+  private readonly writeHooks: BatchWriteHook[] = [];
+
   constructor(@Inject(Database) private readonly database: Database) {}
+
+  /** Runs `hook` inside the transaction of every write of a batch's state. */
+  onRecordWrite(hook: BatchWriteHook): void {
+    this.writeHooks.push(hook);
+  }
 
   private get db() {
     return this.database.db;
@@ -161,7 +174,22 @@ export class BatchesRepository implements BatchStore {
     detail: BatchDetail,
     trace: readonly TracePoint[],
   ): Promise<BatchRow> {
-    const [row] = await this.db
+    if (!this.writeHooks.length) return this.updateRecord(this.db, id, rec, detail, trace);
+    return this.db.transaction(async (tx) => {
+      const row = await this.updateRecord(tx, id, rec, detail, trace);
+      for (const hook of this.writeHooks) await hook(tx, row);
+      return row;
+    });
+  }
+
+  private async updateRecord(
+    db: DbOrTx,
+    id: number,
+    rec: BatchRecord,
+    detail: BatchDetail,
+    trace: readonly TracePoint[],
+  ): Promise<BatchRow> {
+    const [row] = await db
       .update(batches)
       .set({
         state: rec.state,
@@ -197,6 +225,23 @@ export class BatchesRepository implements BatchStore {
       .select()
       .from(batches)
       .where(inArray(batches.state, [...WEIGHING_STATES, 'interrupted']));
+  }
+
+  /** Number, state and verdict of the batches saved or abandoned since `since`. */
+  outcomesSince(
+    since: Date,
+  ): Promise<Array<Pick<BatchRow, 'id' | 'state' | 'verdict' | 'benchId' | 'materialName'>>> {
+    return this.db
+      .select({
+        id: batches.id,
+        state: batches.state,
+        verdict: batches.verdict,
+        benchId: batches.benchId,
+        materialName: batches.materialName,
+      })
+      .from(batches)
+      .where(and(inArray(batches.state, ['saved', 'abandoned']), gte(batches.updatedAt, since)))
+      .orderBy(batches.id);
   }
 
   list(filter: BatchListFilter): Promise<BatchRow[]> {

@@ -7,6 +7,8 @@ import { createFilesPrivately, lockDataDir, makePrivate } from './data-dir.js';
 import * as schema from './schema/index.js';
 
 export type Db = PgliteDatabase<typeof schema>;
+/** The database or a transaction on it: what a repository method that may join a transaction takes. */
+export type DbOrTx = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /**
  * The embedded PostgreSQL (PGlite) in a data folder on disk, reached only through Drizzle.

@@ -26,3 +26,6 @@ export const VolumeEstimator = lazy(() =>
     default: m.VolumeEstimator,
   })),
 );
+export const AlertsPage = lazy(() =>
+  import('../features/alerts/components/alerts-page').then((m) => ({ default: m.AlertsPage })),
+);

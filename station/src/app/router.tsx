@@ -4,6 +4,7 @@ import { DeskSignIn } from '../features/auth/components/desk-sign-in';
 import { HubStatus } from '../features/health/components/hub-status';
 import { RequireRole } from '../features/auth/components/require-role';
 import {
+  AlertsPage,
   BatchDetail,
   BatchesPage,
   BenchScaleRoute,
@@ -55,6 +56,14 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['admin']}>
             <PeoplePage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'alerts',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <AlertsPage />
           </RequireRole>
         ),
       },

@@ -3,3 +3,4 @@ export * from './benches.js';
 export * from './materials.js';
 export * from './batches.js';
 export * from './people.js';
+export * from './alerts.js';

@@ -9,6 +9,7 @@ const areas = [
   { to: '/bench', label: 'Bench' },
   { to: '/review', label: 'Review' },
   { to: '/plan', label: 'Pour planner' },
+  { to: '/alerts', label: 'Alerts' },
 ];
 
 /**
