@@ -3,6 +3,7 @@ import { benchIdSchema } from './benches.js';
 import { lotWarningSchema, materialIdSchema } from './materials.js';
 import { roleSchema } from './roles.js';
 import { positiveMeasure } from './mix/cavity.js';
+import { pageOf } from './page.js';
 import { text } from './text.js';
 
 /** A batch number as it appears in an address: PostgreSQL `integer` ids, 1 to 2³¹ − 1. */
@@ -56,12 +57,56 @@ export const abandonBatchSchema = z.object({
     .max(500),
 });
 
-/** Query of `GET /api/batches`: the latest batches, of one bench or in one state if asked. */
-export const batchListQuerySchema = z.object({
+/** How a lead orders the batch list: newest first unless asked; `absDeviation` is |off ratio|. */
+export const batchSortSchema = z.enum([
+  '-createdAt',
+  'createdAt',
+  'ratioDeviationPct',
+  '-ratioDeviationPct',
+  'absDeviation',
+  '-absDeviation',
+]);
+export type BatchSort = z.infer<typeof batchSortSchema>;
+
+/** What a lead decided about a saved batch. */
+export const dispositionDecisionSchema = z.enum(['release', 'hold', 'scrap']);
+export type DispositionDecision = z.infer<typeof dispositionDecisionSchema>;
+
+/** A time in a query: ISO 8601 with its offset (`2026-12-02T08:00:00Z`). */
+const queryTime = (field: string) =>
+  text()
+    .max(40)
+    .pipe(
+      z.iso.datetime({
+        offset: true,
+        error: `Give ${field} as an ISO time with its offset, like 2026-12-02T08:00:00Z`,
+      }),
+    );
+
+/** The filters of the batch list and of its CSV export. `from` is inclusive, `to` exclusive. */
+export const batchFilterSchema = z.object({
+  from: queryTime('from').optional(),
+  to: queryTime('to').optional(),
+  materialId: materialIdSchema.optional(),
   benchId: benchIdSchema.optional(),
+  operatorId: text().trim().min(1).max(80).optional(),
+  verdict: batchVerdictSchema.optional(),
   state: batchStateSchema.optional(),
+  /** The latest decision on the batch; `none`: not decided yet. */
+  disposition: z.enum([...dispositionDecisionSchema.options, 'none']).optional(),
+  /** Matches the lot code of any part, letter case aside. */
+  lot: text().trim().min(1).max(80).optional(),
+  sort: batchSortSchema.default('-createdAt'),
+});
+export type BatchFilter = z.input<typeof batchFilterSchema>;
+
+/** Query of `GET /api/batches`: the filters, and a page of them after `cursor`. */
+export const batchListQuerySchema = batchFilterSchema.extend({
+  /** `nextCursor` of the page before, as the hub gave it. */
+  cursor: text().max(200).optional(),
   limit: z.coerce.number().int().min(1).max(500).default(50),
 });
+export type BatchListQuery = z.input<typeof batchListQuerySchema>;
 
 /** Query of `GET /api/batches/current`: the bench whose open batch is asked for. */
 export const currentBatchQuerySchema = z.object({
@@ -101,6 +146,37 @@ export const rescueSchema = z.object({
   fits: z.boolean().nullable(),
 });
 export type Rescue = z.infer<typeof rescueSchema>;
+
+/** A decision on a batch, as recorded: who signed it and when. Never edited or deleted. */
+export const dispositionSchema = z.object({
+  decision: dispositionDecisionSchema,
+  reason: z.string().nullable(),
+  by: z.object({ id: z.string(), name: z.string() }),
+  at: z.string(),
+});
+export type Disposition = z.infer<typeof dispositionSchema>;
+
+/** Body of `POST /api/batches/:id/dispositions`: the decision, signed with the lead's password. */
+export const createDispositionSchema = z
+  .object({
+    decision: dispositionDecisionSchema,
+    reason: text({ multiline: true }).trim().max(500).optional(),
+    password: text({ error: 'Enter your password to sign' })
+      .min(1, {
+        error: 'Enter your password to sign',
+      })
+      .max(200),
+  })
+  .superRefine((body, ctx) => {
+    if (body.decision !== 'release' && !body.reason) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['reason'],
+        message: `Say why the batch is ${body.decision === 'hold' ? 'held' : 'scrapped'}`,
+      });
+    }
+  });
+export type CreateDisposition = z.input<typeof createDispositionSchema>;
 
 export const batchSchema = z.object({
   id: z.number().int(),
@@ -149,8 +225,26 @@ export const batchSchema = z.object({
   savedAt: z.string().nullable(),
   /** Every reading of the batch as [ms since start, net g]. Only on the single-batch answer. */
   trace: z.array(z.tuple([z.number(), z.number()])).optional(),
+  /** The latest decision on the batch, null before any. Only on the single-batch answer. */
+  disposition: dispositionDecisionSchema.nullable().optional(),
+  /** Every decision on the batch, oldest first. Only on the single-batch answer. */
+  dispositions: z.array(dispositionSchema).optional(),
 });
 export type Batch = z.infer<typeof batchSchema>;
+
+/** One row of the batch list: a batch without its trace, pour and rescue, with its decision. */
+export const batchSummarySchema = batchSchema
+  .omit({ trace: true, active: true, rescue: true, dispositions: true })
+  .extend({
+    disposition: dispositionDecisionSchema.nullable(),
+    /** The bench's name as it is now; null if the bench is gone. */
+    benchName: z.string().nullable(),
+  });
+export type BatchSummary = z.infer<typeof batchSummarySchema>;
+
+/** Answer of `GET /api/batches`. */
+export const batchPageSchema = pageOf(batchSummarySchema);
+export type BatchPage = z.infer<typeof batchPageSchema>;
 
 /** Live socket event: the bench's batch changed state (or there is none any more). */
 export const batchEventSchema = z.object({

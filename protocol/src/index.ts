@@ -11,3 +11,5 @@ export * from './auth.js';
 export * from './scale-link.js';
 export * from './benches.js';
 export * from './scale-stability.js';
+export * from './audit.js';
+export * from './page.js';

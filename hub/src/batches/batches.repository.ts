@@ -1,8 +1,17 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
-import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import {
+  WEIGHING_STATES,
+  type Batch,
+  type BatchSort,
+  type BatchState,
+  type BatchVerdict,
+  type Disposition,
+  type DispositionDecision,
+} from '@tareline/protocol';
+import { and, asc, desc, eq, getTableColumns, gte, inArray, lt, sql, type SQL } from 'drizzle-orm';
 import { Database } from '../database/database.js';
-import { batches } from '../database/schema/index.js';
+import type { Tx } from '../audit/audit.repository.js';
+import { batchDispositions, batches, benches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
 import { encodeTrace, type TracePoint } from './pour-trace.js';
 
@@ -107,6 +116,32 @@ export interface BatchListFilter {
   limit: number;
 }
 
+/** What a lead looks for; every field narrows the list. */
+export interface BatchSearch {
+  from?: string;
+  to?: string;
+  materialId?: string;
+  benchId?: string;
+  operatorId?: string;
+  verdict?: BatchVerdict;
+  state?: BatchState;
+  disposition?: DispositionDecision | 'none';
+  lot?: string;
+  sort: BatchSort;
+  /** The sort key and id of the last row of the page before (see {@link SearchRow}). */
+  after?: { key: string | null; id: number };
+  limit: number;
+}
+
+/** A row of a search: the batch without its trace, its latest decision, and its sort key. */
+export interface SearchRow {
+  row: BatchRow;
+  benchName: string | null;
+  disposition: DispositionDecision | null;
+  /** The sort key as PostgreSQL prints it, exact (timestamps to the microsecond). */
+  key: string | null;
+}
+
 /** The batch store seen by the rest of the hub. A test gives the rooms a fake of it. */
 export interface BatchStore {
   insert(values: NewBatchRow): Promise<BatchRow>;
@@ -122,6 +157,39 @@ export interface BatchStore {
   /** Batches being weighed or interrupted: the ones a bench still has open. */
   findOpen(): Promise<BatchRow[]>;
   list(filter: BatchListFilter): Promise<BatchRow[]>;
+}
+
+const { trace: _trace, ...summaryColumns } = getTableColumns(batches);
+
+/** The latest decision on the batch of the outer query. */
+const latestDisposition = sql<DispositionDecision | null>`(
+  select ${batchDispositions.decision} from ${batchDispositions}
+  where ${batchDispositions.batchId} = ${batches.id}
+  order by ${batchDispositions.id} desc limit 1)`;
+
+/**
+ * The key each sort orders by, ties broken by number. A batch without a deviation (abandoned,
+ * still weighing) sorts last either way: its key is the infinity at the far end.
+ */
+function sortKey(sort: BatchSort): { key: SQL; cast: SQL; descending: boolean } {
+  const descending = sort.startsWith('-');
+  const last = descending ? sql`'-Infinity'::float8` : sql`'Infinity'::float8`;
+  switch (sort.replace(/^-/, '')) {
+    case 'createdAt':
+      return { key: sql`${batches.createdAt}`, cast: sql`timestamptz`, descending };
+    case 'ratioDeviationPct':
+      return {
+        key: sql`coalesce(${batches.ratioDeviationPct}, ${last})`,
+        cast: sql`float8`,
+        descending,
+      };
+    default:
+      return {
+        key: sql`coalesce(abs(${batches.ratioDeviationPct}), ${last})`,
+        cast: sql`float8`,
+        descending,
+      };
+  }
 }
 
 /** The only place that talks SQL about batches. */
@@ -197,6 +265,70 @@ export class BatchesRepository implements BatchStore {
       .select()
       .from(batches)
       .where(inArray(batches.state, [...WEIGHING_STATES, 'interrupted']));
+  }
+
+  /** A page of batches matching a lead's filters, in the asked order, after a cursor. */
+  async search(q: BatchSearch): Promise<SearchRow[]> {
+    const { key, cast, descending } = sortKey(q.sort);
+    const where: SQL[] = [];
+    if (q.from) where.push(gte(batches.createdAt, new Date(q.from)));
+    if (q.to) where.push(lt(batches.createdAt, new Date(q.to)));
+    if (q.materialId) where.push(eq(batches.materialId, q.materialId));
+    if (q.benchId) where.push(eq(batches.benchId, q.benchId));
+    if (q.operatorId) where.push(eq(batches.operatorId, q.operatorId));
+    if (q.verdict) where.push(eq(batches.verdict, q.verdict));
+    if (q.state) where.push(eq(batches.state, q.state));
+    if (q.disposition === 'none') where.push(sql`${latestDisposition} is null`);
+    else if (q.disposition) where.push(sql`${latestDisposition} = ${q.disposition}`);
+    if (q.lot) {
+      where.push(sql`exists (select 1 from jsonb_array_elements(${batches.detail}->'lots') l
+        where lower(l->>'code') = lower(${q.lot}))`);
+    }
+    if (q.after) {
+      // A null key is the sort's far infinity, which PostgreSQL reads back from its own text.
+      const value = q.after.key ?? (descending ? '-Infinity' : 'Infinity');
+      const op = descending ? sql`<` : sql`>`;
+      where.push(sql`(${key}, ${batches.id}) ${op} (${value}::${cast}, ${q.after.id})`);
+    }
+    const order = descending ? desc : asc;
+    const rows = await this.db
+      .select({
+        ...summaryColumns,
+        benchName: benches.name,
+        disposition: latestDisposition,
+        key: sql<string | null>`${key}::text`,
+      })
+      .from(batches)
+      .leftJoin(benches, eq(benches.id, batches.benchId))
+      .where(where.length ? and(...where) : undefined)
+      .orderBy(order(key), order(batches.id))
+      .limit(q.limit);
+    return rows.map(({ disposition, key: k, benchName, ...row }) => ({
+      row: { ...row, trace: null },
+      benchName,
+      disposition: disposition ?? null,
+      key: k === 'Infinity' || k === '-Infinity' ? null : k,
+    }));
+  }
+
+  /** Appends a decision, in the caller's transaction (the audit trail appends in the same). */
+  async insertDisposition(tx: Tx, values: typeof batchDispositions.$inferInsert): Promise<void> {
+    await tx.insert(batchDispositions).values(values);
+  }
+
+  /** Every decision on a batch, oldest first. */
+  async dispositions(batchId: number): Promise<Disposition[]> {
+    const rows = await this.db
+      .select()
+      .from(batchDispositions)
+      .where(eq(batchDispositions.batchId, batchId))
+      .orderBy(asc(batchDispositions.id));
+    return rows.map((r) => ({
+      decision: r.decision,
+      reason: r.reason,
+      by: { id: r.byId, name: r.byName },
+      at: r.at.toISOString(),
+    }));
   }
 
   list(filter: BatchListFilter): Promise<BatchRow[]> {

@@ -3,3 +3,5 @@ export * from './benches.js';
 export * from './materials.js';
 export * from './batches.js';
 export * from './people.js';
+export * from './dispositions.js';
+export * from './audit.js';

@@ -1,6 +1,5 @@
-import { batchSchema, type Batch, type BatchState } from '@tareline/protocol';
+import { batchPageSchema, type BatchState, type BatchSummary } from '@tareline/protocol';
 import { useQuery } from '@tanstack/react-query';
-import { z } from 'zod';
 import { apiRequest } from '../../../lib/api-client';
 
 export interface BatchFilter {
@@ -11,13 +10,14 @@ export interface BatchFilter {
 
 export const batchesQueryKey = (filter: BatchFilter) => ['batches', filter] as const;
 
-export function getBatches(filter: BatchFilter): Promise<Batch[]> {
+export async function getBatches(filter: BatchFilter): Promise<BatchSummary[]> {
   const params = new URLSearchParams();
   if (filter.state) params.set('state', filter.state);
   if (filter.benchId) params.set('benchId', filter.benchId);
   if (filter.limit) params.set('limit', String(filter.limit));
   const query = params.toString();
-  return apiRequest(`/batches${query ? `?${query}` : ''}`, z.array(batchSchema));
+  const page = await apiRequest(`/batches${query ? `?${query}` : ''}`, batchPageSchema);
+  return page.items;
 }
 
 /** The newest batches first, as the hub lists them. */

@@ -39,6 +39,16 @@ function batch(overrides: Partial<Batch> = {}): Batch {
   });
 }
 
+/** A page of the batch list as the hub answers it. */
+const page = (items: Batch[]) => ({
+  items: items.map(({ trace: _t, active: _a, rescue: _r, ...b }) => ({
+    ...b,
+    disposition: null,
+    benchName: null,
+  })),
+  nextCursor: null,
+});
+
 afterEach(() => setSession(null));
 
 describe('batch review', () => {
@@ -47,15 +57,15 @@ describe('batch review', () => {
     const requests = stubHub({
       'GET /batches?limit=200': () => [
         200,
-        [
+        page([
           batch(),
           batch({ id: 11, verdict: 'NO-GO', ratioDeviationPct: 2.5 }),
           batch({ id: 10, state: 'abandoned', verdict: null, ratioDeviationPct: null }),
-        ],
+        ]),
       ],
       'GET /batches?state=abandoned&limit=200': () => [
         200,
-        [batch({ id: 10, state: 'abandoned', verdict: null, ratioDeviationPct: null })],
+        page([batch({ id: 10, state: 'abandoned', verdict: null, ratioDeviationPct: null })]),
       ],
     });
     renderRoutes(routes, '/review/batches');
