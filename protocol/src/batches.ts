@@ -72,6 +72,9 @@ export type BatchSort = z.infer<typeof batchSortSchema>;
 export const dispositionDecisionSchema = z.enum(['release', 'hold', 'scrap']);
 export type DispositionDecision = z.infer<typeof dispositionDecisionSchema>;
 
+/** A decision to filter by, or `none`: not decided yet. */
+export const batchDispositionFilterOptions = z.enum([...dispositionDecisionSchema.options, 'none']);
+
 /** A time in a query: ISO 8601 with its offset (`2026-12-02T08:00:00Z`). */
 const queryTime = (field: string) =>
   text()
@@ -93,7 +96,7 @@ export const batchFilterSchema = z.object({
   verdict: batchVerdictSchema.optional(),
   state: batchStateSchema.optional(),
   /** The latest decision on the batch; `none`: not decided yet. */
-  disposition: z.enum([...dispositionDecisionSchema.options, 'none']).optional(),
+  disposition: batchDispositionFilterOptions.optional(),
   /** Matches the lot code of any part, letter case aside. */
   lot: text().trim().min(1).max(80).optional(),
   sort: batchSortSchema.default('-createdAt'),

@@ -4,6 +4,7 @@ import { decimalsForReadability } from '../../../lib/grams';
 import { deviationPctText } from '../../../lib/percent';
 import { shownTime } from '../utils';
 import { BatchOutcome } from './batch-outcome';
+import { DispositionPanel } from './disposition-panel';
 import { PourTraceChart } from './pour-trace-chart';
 
 /** Names of the steps the hub records, in words for the review page. */
@@ -150,6 +151,8 @@ export function BatchDetail() {
           })}
         </tbody>
       </table>
+
+      <DispositionPanel batch={b} />
 
       <section aria-labelledby="trace-title">
         <h2 id="trace-title" className="mb-2 text-xl font-semibold">
