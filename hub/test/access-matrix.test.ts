@@ -41,6 +41,7 @@ const EXPECTED: Record<string, 'public' | readonly Role[]> = {
   'GET /api/batches/export.csv': ['lead', 'admin'],
   'POST /api/batches/:id/dispositions': ['lead', 'admin'],
   'GET /api/audit': ['lead', 'admin'],
+  'GET /api/accuracy': ['lead', 'admin'],
   'GET /api/audit/verify': ['lead', 'admin'],
   'POST /api/batches': EVERYONE_SIGNED_IN,
   'POST /api/batches/:id/tare': EVERYONE_SIGNED_IN,

@@ -1,4 +1,6 @@
 import type {
+  AccuracyAnswer,
+  AccuracyRow,
   AuditPage,
   AuditVerify,
   Batch,
@@ -54,6 +56,54 @@ function seedRows(materialIds: string[]): Omit<Seeded, 'id'>[] {
   });
 }
 
+/** Writes invented batches straight into the database, numbered from `firstId`. */
+async function insertBatches(
+  hub: TestHub,
+  rows: (Omit<Seeded, 'id'> & { rescued?: boolean })[],
+  firstId: number,
+): Promise<number[]> {
+  const inserted = await hub.app
+    .get(Database)
+    .db.insert(batches)
+    .values(
+      rows.map((r, i) => ({
+        id: firstId + i,
+        benchId: r.benchId,
+        operatorId: r.operatorId,
+        operatorName: `Operator ${r.operatorId}`,
+        materialId: r.materialId,
+        materialName: `Material ${r.materialId}`,
+        state: r.state,
+        verdict: r.verdict,
+        totalMassG: 114,
+        weightRatio: [100, 14],
+        tolerancePct: 1,
+        readabilityG: 0.01,
+        ratioDeviationPct: r.dev,
+        detail: {
+          parts: [
+            { label: 'Part A', targetG: 100, actualG: 100 },
+            { label: 'Part B', targetG: 14, actualG: 14 * (1 + (r.dev ?? 0) / 100) },
+          ],
+          active: null,
+          topUpQueue: [],
+          rescue: null,
+          steps: {
+            created: r.createdAt.toISOString(),
+            ...(r.rescued ? { rescueTaken: r.createdAt.toISOString() } : {}),
+          },
+          lots: r.lots.map((code, part) => ({ part, code, lotId: null, warnings: [] })),
+          potLifeMin: null,
+          potLifeMassG: null,
+        },
+        createdAt: r.createdAt,
+        savedAt: r.state === 'saved' ? r.createdAt : null,
+      })),
+    )
+    .returning({ id: batches.id });
+  return inserted.map((r) => r.id);
+}
+
 describe("the lead's desk: batches by filter, sort and page; CSV; decisions; audit trail", () => {
   let hub: TestHub;
   let data: Awaited<ReturnType<typeof tempDataDir>>;
@@ -87,43 +137,8 @@ describe("the lead's desk: batches by filter, sort and page; CSV; decisions; aud
     const materials = await call<Material[]>(hub, 'GET', '/api/materials', { token: lead });
     const materialIds = materials.body.slice(0, 2).map((m) => m.id);
     const rows = seedRows(materialIds);
-    const inserted = await hub.app
-      .get(Database)
-      .db.insert(batches)
-      .values(
-        rows.map((r, i) => ({
-          id: 1000 + i,
-          benchId: r.benchId,
-          operatorId: r.operatorId,
-          operatorName: `Operator ${r.operatorId}`,
-          materialId: r.materialId,
-          materialName: `Material ${r.materialId}`,
-          state: r.state,
-          verdict: r.verdict,
-          totalMassG: 114,
-          weightRatio: [100, 14],
-          tolerancePct: 1,
-          readabilityG: 0.01,
-          ratioDeviationPct: r.dev,
-          detail: {
-            parts: [
-              { label: 'Part A', targetG: 100, actualG: 100 },
-              { label: 'Part B', targetG: 14, actualG: 14 * (1 + (r.dev ?? 0) / 100) },
-            ],
-            active: null,
-            topUpQueue: [],
-            rescue: null,
-            steps: { created: r.createdAt.toISOString() },
-            lots: r.lots.map((code, part) => ({ part, code, lotId: null, warnings: [] })),
-            potLifeMin: null,
-            potLifeMassG: null,
-          },
-          createdAt: r.createdAt,
-          savedAt: r.state === 'saved' ? r.createdAt : null,
-        })),
-      )
-      .returning({ id: batches.id });
-    seeded = rows.map((r, i) => ({ ...r, id: inserted[i]!.id }));
+    const inserted = await insertBatches(hub, rows, 1000);
+    seeded = rows.map((r, i) => ({ ...r, id: inserted[i]! }));
   });
 
   afterAll(async () => {
@@ -363,5 +378,64 @@ describe("the lead's desk: batches by filter, sort and page; CSV; decisions; aud
       firstBrokenId: tampered.id,
     });
     expect(after.body.checked).toBeLessThanOrEqual(total);
+  });
+
+  it('computes accuracy per operator and week in the database, as figured by hand', async () => {
+    const monday = Date.parse('2026-10-05T00:00:00.000Z');
+    const at = (days: number) => new Date(monday + days * 24 * HOUR + 9 * HOUR);
+    const base = {
+      benchId: 'bench-1',
+      operatorId: 'p-acc',
+      materialId: seeded[0]!.materialId,
+      lots: [],
+    };
+    await insertBatches(
+      hub,
+      [
+        { ...base, createdAt: at(0), state: 'saved', verdict: 'GO', dev: 0.5 },
+        { ...base, createdAt: at(1), state: 'saved', verdict: 'GO', dev: -0.3, rescued: true },
+        { ...base, createdAt: at(2), state: 'saved', verdict: 'NO-GO', dev: 1.2 },
+        { ...base, createdAt: at(4), state: 'saved', verdict: 'GO', dev: 0.1 },
+        // Abandoned: not counted.
+        { ...base, createdAt: at(3), state: 'abandoned', verdict: null, dev: 3 },
+        { ...base, createdAt: at(8), state: 'saved', verdict: 'GO', dev: 0.8 },
+      ],
+      2000,
+    );
+    const answer = await call<AccuracyAnswer>(
+      hub,
+      'GET',
+      `/api/accuracy?groupBy=operator&bucket=week&from=2026-10-01T00:00:00Z&to=2026-10-31T00:00:00Z`,
+      { token: lead },
+    );
+    expect(answer.status).toBe(200);
+    const rows = answer.body.rows.filter((r) => r.groupId === 'p-acc');
+    expect(rows.map((r) => [r.bucketStart, r.count, r.rescues])).toEqual([
+      ['2026-10-05T00:00:00.000Z', 4, 1],
+      ['2026-10-12T00:00:00.000Z', 1, 0],
+    ]);
+    const [week1, week2] = rows as [AccuracyRow, AccuracyRow];
+    expect(week1.groupName).toBe('Operator p-acc');
+    // By hand: 3 of 4 GO.
+    expect(week1.goShare).toBeCloseTo(0.75, 10);
+    // Mean (0.5 − 0.3 + 1.2 + 0.1) / 4 = 0.375.
+    expect(week1.meanDeviationPct).toBeCloseTo(0.375, 10);
+    // Sample standard deviation, n − 1 in the denominator (NIST/SEMATECH e-Handbook of
+    // Statistical Methods, 1.3.5.6): squares about the mean 0.015625 + 0.455625 + 0.680625 +
+    // 0.075625 = 1.2275; √(1.2275 / 3) = 0.639661...
+    expect(week1.sdDeviationPct).toBeCloseTo(Math.sqrt(1.2275 / 3), 10);
+    // 95th percentile interpolated between order statistics (Hyndman & Fan 1996, definition 7,
+    // which PostgreSQL's percentile_cont follows): |dev| sorted 0.1, 0.3, 0.5, 1.2; position
+    // 0.95 × 3 = 2.85, so 0.5 + 0.85 × (1.2 − 0.5) = 1.095.
+    expect(week1.p95AbsDeviationPct).toBeCloseTo(1.095, 10);
+    expect(week2.meanDeviationPct).toBeCloseTo(0.8, 10);
+    expect(week2.sdDeviationPct).toBeNull();
+    expect(week2.goShare).toBe(1);
+
+    const operator = (await badgeSignIn(hub, DEMO.joss.badge)).body.token;
+    const refused = await call(hub, 'GET', '/api/accuracy?groupBy=bench', { token: operator });
+    expect(refused.status).toBe(403);
+    const bad = await call(hub, 'GET', '/api/accuracy?groupBy=shift', { token: lead });
+    expect(bad.status).toBe(400);
   });
 });

@@ -342,6 +342,7 @@ const QUERY_KEYS: Record<string, readonly string[]> = {
   ],
   'GET /api/batches/export.csv': ['from', 'to', 'lot', 'sort', 'verdict', 'disposition'],
   'GET /api/audit': ['entity', 'entityId', 'cursor', 'limit'],
+  'GET /api/accuracy': ['groupBy', 'bucket', 'from', 'to'],
   'GET /api/batches/current': ['benchId'],
 };
 

@@ -276,3 +276,39 @@ export const pourEventSchema = z.object({
   saveProblem: z.string().optional(),
 });
 export type PourEvent = z.infer<typeof pourEventSchema>;
+
+/** Query of `GET /api/accuracy`: saved batches grouped, by day or week (UTC), in a time range. */
+export const accuracyQuerySchema = z.object({
+  groupBy: z.enum(['material', 'bench', 'operator']),
+  bucket: z.enum(['day', 'week']).default('week'),
+  from: queryTime('from').optional(),
+  to: queryTime('to').optional(),
+});
+export type AccuracyQuery = z.input<typeof accuracyQuerySchema>;
+
+/** How close one group came to the ratio in one day or week. */
+export const accuracyRowSchema = z.object({
+  groupId: z.string(),
+  groupName: z.string(),
+  /** The start of the day or week (Monday), UTC. */
+  bucketStart: z.string(),
+  /** Saved batches. */
+  count: z.number().int(),
+  /** Share of them saved GO, 0 to 1. */
+  goShare: z.number(),
+  meanDeviationPct: z.number().nullable(),
+  /** Sample standard deviation (n − 1); null for a single batch. */
+  sdDeviationPct: z.number().nullable(),
+  /** 95th percentile of |deviation|, interpolated between the two nearest batches. */
+  p95AbsDeviationPct: z.number().nullable(),
+  /** Batches where a rescue was taken. */
+  rescues: z.number().int(),
+});
+export type AccuracyRow = z.infer<typeof accuracyRowSchema>;
+
+export const accuracyAnswerSchema = z.object({
+  groupBy: accuracyQuerySchema.shape.groupBy,
+  bucket: accuracyQuerySchema.shape.bucket.unwrap(),
+  rows: z.array(accuracyRowSchema),
+});
+export type AccuracyAnswer = z.infer<typeof accuracyAnswerSchema>;

@@ -1,6 +1,7 @@
 import { Readable } from 'node:stream';
 import { Inject, Injectable } from '@nestjs/common';
 import type {
+  AccuracyAnswer,
   Batch,
   BatchPage,
   BatchSort,
@@ -22,6 +23,8 @@ import {
   type SearchRow,
 } from './batches.repository.js';
 import { BatchesService } from './batches.service.js';
+
+type AccuracyQueryOut = Parameters<BatchesRepository['accuracy']>[0];
 
 /** The filters of a list or export, as the query schema gives them. */
 export type DeskFilter = Omit<BatchSearch, 'after' | 'limit'>;
@@ -121,6 +124,11 @@ export class BatchDeskService {
     return Readable.from(pages()).pipe(
       stringify({ header: true, columns: CSV_COLUMNS, record_delimiter: 'windows' }),
     );
+  }
+
+  /** Accuracy per group and day or week, for the trends a lead watches. */
+  async accuracy(q: AccuracyQueryOut): Promise<AccuracyAnswer> {
+    return { groupBy: q.groupBy, bucket: q.bucket, rows: await this.repository.accuracy(q) };
   }
 
   /** One batch with its trace and its decisions. */

@@ -2,6 +2,7 @@ import { Module } from '@nestjs/common';
 import { AuditModule } from '../audit/audit.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
+import { AccuracyController } from './accuracy.controller.js';
 import { BatchDeskService } from './batch-desk.service.js';
 import { BatchRunner } from './batch-runner.js';
 import { BatchesController } from './batches.controller.js';
@@ -16,7 +17,7 @@ import { BenchSessions } from './bench-sessions.js';
  */
 @Module({
   imports: [ScalesModule, MaterialsModule, AuditModule],
-  controllers: [BatchesController],
+  controllers: [BatchesController, AccuracyController],
   providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService, BatchDeskService],
   exports: [BatchesService],
 })

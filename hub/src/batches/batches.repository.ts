@@ -1,6 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import {
   WEIGHING_STATES,
+  type AccuracyRow,
   type Batch,
   type BatchSort,
   type BatchState,
@@ -314,6 +315,59 @@ export class BatchesRepository implements BatchStore {
   /** Appends a decision, in the caller's transaction (the audit trail appends in the same). */
   async insertDisposition(tx: Tx, values: typeof batchDispositions.$inferInsert): Promise<void> {
     await tx.insert(batchDispositions).values(values);
+  }
+
+  /**
+   * Saved batches per group and UTC day or week, all figures computed by PostgreSQL: count, GO
+   * share, mean and sample standard deviation of the deviation, the 95th percentile of its
+   * magnitude (`percentile_cont`, interpolated), and the batches where a rescue was taken.
+   */
+  async accuracy(q: {
+    groupBy: 'material' | 'bench' | 'operator';
+    bucket: 'day' | 'week';
+    from?: string | undefined;
+    to?: string | undefined;
+  }): Promise<AccuracyRow[]> {
+    const [groupId, groupName] = {
+      material: [batches.materialId, sql`max(${batches.materialName})`],
+      bench: [batches.benchId, sql`coalesce(max(${benches.name}), ${batches.benchId})`],
+      operator: [batches.operatorId, sql`max(${batches.operatorName})`],
+    }[q.groupBy];
+    // A literal, not a parameter: GROUP BY must see the same expression as the select list.
+    const unit = sql.raw(q.bucket === 'day' ? `'day'` : `'week'`);
+    const bucketStart = sql`date_trunc(${unit}, ${batches.createdAt}, 'UTC')`;
+    const where: SQL[] = [eq(batches.state, 'saved')];
+    if (q.from) where.push(gte(batches.createdAt, new Date(q.from)));
+    if (q.to) where.push(lt(batches.createdAt, new Date(q.to)));
+    const dev = batches.ratioDeviationPct;
+    const rows = await this.db
+      .select({
+        groupId: sql<string>`${groupId}`,
+        groupName: sql<string>`${groupName}`,
+        bucketStart: sql<Date>`${bucketStart}`.mapWith((v: string | Date) => new Date(v)),
+        count: sql<number>`count(*)::int`,
+        goShare: sql<number>`avg(case when ${batches.verdict} = 'GO' then 1.0 else 0.0 end)::float8`,
+        mean: sql<number | null>`avg(${dev})::float8`,
+        sd: sql<number | null>`stddev_samp(${dev})::float8`,
+        p95: sql<number | null>`percentile_cont(0.95) within group (order by abs(${dev}))`,
+        rescues: sql<number>`(count(*) filter (where jsonb_exists(${batches.detail}->'steps', 'rescueTaken')))::int`,
+      })
+      .from(batches)
+      .leftJoin(benches, eq(benches.id, batches.benchId))
+      .where(and(...where))
+      .groupBy(groupId, bucketStart)
+      .orderBy(asc(groupId), asc(bucketStart));
+    return rows.map((r) => ({
+      groupId: r.groupId,
+      groupName: r.groupName,
+      bucketStart: r.bucketStart.toISOString(),
+      count: r.count,
+      goShare: Number(r.goShare),
+      meanDeviationPct: r.mean === null ? null : Number(r.mean),
+      sdDeviationPct: r.sd === null ? null : Number(r.sd),
+      p95AbsDeviationPct: r.p95 === null ? null : Number(r.p95),
+      rescues: r.rescues,
+    }));
   }
 
   /** Every decision on a batch, oldest first. */

@@ -4,6 +4,7 @@ import { DeskSignIn } from '../features/auth/components/desk-sign-in';
 import { HubStatus } from '../features/health/components/hub-status';
 import { RequireRole } from '../features/auth/components/require-role';
 import {
+  AccuracyPage,
   BatchDetail,
   BatchesPage,
   BenchScaleRoute,
@@ -47,6 +48,14 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['operator', 'lead', 'admin']}>
             <BatchDetail />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'review/accuracy',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <AccuracyPage />
           </RequireRole>
         ),
       },

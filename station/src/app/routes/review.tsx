@@ -17,6 +17,11 @@ export function ReviewRoute() {
           Batches
         </Link>
       </p>
+      <p className="mt-4 text-lg">
+        <Link className="underline" to="/review/accuracy">
+          Accuracy over time
+        </Link>
+      </p>
       {hasRole(session, ['admin']) && (
         <p className="mt-4 text-lg">
           <Link className="underline" to="/review/people">
