@@ -439,3 +439,26 @@ describe("the lead's desk: batches by filter, sort and page; CSV; decisions; aud
     expect(bad.status).toBe(400);
   });
 });
+
+describe('signing a decision', () => {
+  it('counts password guesses against the sign-in budget of the address', async () => {
+    const data = await tempDataDir();
+    const hub = await startTestHub(data.dir, { TARELINE_SIGN_IN_LIMIT: '3' });
+    try {
+      // The sign-in is the first of the three tries a minute.
+      const lead = await login(hub, DEMO.lead.email, DEMO.lead.password);
+      const guess = () =>
+        call(hub, 'POST', '/api/batches/1/dispositions', {
+          token: lead,
+          body: { decision: 'release', password: 'guess' },
+        });
+      // No batch 1 in the demo shop: each guess is refused, and counted.
+      expect((await guess()).status).toBe(404);
+      expect((await guess()).status).toBe(404);
+      expect((await guess()).status).toBe(429);
+    } finally {
+      await hub.close();
+      await data.remove();
+    }
+  });
+});

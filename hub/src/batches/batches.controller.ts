@@ -8,7 +8,9 @@ import {
   Post,
   Query,
   StreamableFile,
+  UseGuards,
 } from '@nestjs/common';
+import { ThrottlerGuard } from '@nestjs/throttler';
 import {
   abandonBatchSchema,
   batchFilterSchema,
@@ -89,6 +91,8 @@ export class BatchesController {
   /** A lead's decision on a saved batch, signed with their password; never edited afterwards. */
   @Post(':id/dispositions')
   @Roles('lead', 'admin')
+  // A password is checked here: guesses count against the address's sign-in budget.
+  @UseGuards(ThrottlerGuard)
   decide(
     @Param('id', batchId) id: number,
     @Body(new ZodValidationPipe(createDispositionSchema, 'The decision is not recorded'))

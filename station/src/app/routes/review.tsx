@@ -18,6 +18,11 @@ export function ReviewRoute() {
         </Link>
       </p>
       <p className="mt-4 text-lg">
+        <Link className="underline" to="/review/batches?state=saved&verdict=NO-GO&disposition=none">
+          NO-GO batches to decide
+        </Link>
+      </p>
+      <p className="mt-4 text-lg">
         <Link className="underline" to="/review/accuracy">
           Accuracy over time
         </Link>

@@ -4,6 +4,7 @@ import { decimalsForReadability } from '../../../lib/grams';
 import { deviationPctText } from '../../../lib/percent';
 import { shownTime } from '../utils';
 import { BatchOutcome } from './batch-outcome';
+import { BatchAudit } from './batch-audit';
 import { DispositionPanel } from './disposition-panel';
 import { PourTraceChart } from './pour-trace-chart';
 
@@ -177,6 +178,8 @@ export function BatchDetail() {
           ))}
         </ol>
       </section>
+
+      <BatchAudit batchId={b.id} />
     </article>
   );
 }

@@ -189,6 +189,25 @@ describe('batch review', () => {
         200,
         batch({ verdict: 'NO-GO', disposition: null, dispositions: [] }),
       ],
+      'GET /audit?entity=batch&entityId=12&limit=200': () => [
+        200,
+        {
+          items: [
+            {
+              id: 3,
+              at: '2026-12-02T08:02:00.000Z',
+              actor: null,
+              entity: 'batch',
+              entityId: '12',
+              action: 'state.saved',
+              data: { state: 'saved' },
+              prevHash: '0'.repeat(64),
+              hash: 'ab12cd34ef56'.padEnd(64, '0'),
+            },
+          ],
+          nextCursor: null,
+        },
+      ],
       'POST /batches/12/dispositions': (req) =>
         (req.body as { password: string }).password === 'ridge-lead-demo'
           ? [201, batch({ verdict: 'NO-GO', disposition: 'hold', dispositions: [held] })]
@@ -203,6 +222,9 @@ describe('batch review', () => {
     renderRoutes(routes, '/review/batches/12');
     const panel = await screen.findByRole('region', { name: 'Decision' });
     expect(within(panel).getByText('Not decided yet.')).toBeInTheDocument();
+    const trail = await screen.findByRole('region', { name: 'Audit trail' });
+    expect(await within(trail).findByText(/state\.saved by the hub/)).toBeInTheDocument();
+    expect(within(trail).getByText('#3 ab12cd34ef56')).toBeInTheDocument();
 
     // Holding asks for a reason before anything is sent.
     await userEvent.type(within(panel).getByLabelText('Your password'), 'wrong');
@@ -232,7 +254,7 @@ describe('batch review', () => {
 
   it('shows one batch: parts as weighed, lot warnings, deviation against the band, the trace', async () => {
     setSession(signInAnswer({ name: 'Joss Whitcombe', role: 'operator' }, { id: 'bench-1' }));
-    stubHub({
+    const requests = stubHub({
       'GET /batches/12': () => [
         200,
         batch({
@@ -277,6 +299,10 @@ describe('batch review', () => {
       'Part B done',
       'Saved',
     ]);
+    // An operator neither decides nor reads the audit trail.
+    expect(screen.queryByRole('form', { name: 'Decide' })).toBeNull();
+    expect(screen.queryByRole('region', { name: 'Audit trail' })).toBeNull();
+    expect(requests.some((r) => r.path.startsWith('/audit'))).toBe(false);
   });
 
   it('says so when the batch does not exist', async () => {
