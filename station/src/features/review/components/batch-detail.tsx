@@ -1,5 +1,6 @@
 import { Link, useParams } from 'react-router-dom';
 import { useBatch } from '../api/get-batch';
+import { useBenches } from '../../../lib/benches';
 import { decimalsForReadability } from '../../../lib/grams';
 import { deviationPctText } from '../../../lib/percent';
 import { shownTime } from '../utils';
@@ -33,6 +34,7 @@ export function BatchDetail() {
   const { batchId } = useParams();
   const id = Number(batchId);
   const batch = useBatch(id);
+  const benches = useBenches();
 
   if (!Number.isInteger(id) || id <= 0) {
     return <p role="alert">“{batchId}” is not a batch number.</p>;
@@ -87,7 +89,7 @@ export function BatchDetail() {
           </>
         )}
         <dt className="text-muted">Bench</dt>
-        <dd>{b.benchId}</dd>
+        <dd>{benches.data?.find((bench) => bench.id === b.benchId)?.name ?? b.benchId}</dd>
         <dt className="text-muted">Mix ratio by weight</dt>
         <dd>{b.weightRatio.join(' : ')}</dd>
         <dt className="text-muted">Off ratio</dt>
