@@ -1,6 +1,7 @@
 import type {
   Batch,
   BatchEvent,
+  BatchPage,
   LiveServerEvents,
   Material,
   PourEvent,
@@ -241,8 +242,10 @@ describe('a batch on the simulated bench, end to end through the hub', () => {
     expect(gone.body).toMatchObject({ state: 'abandoned', abandonReason: 'Cup tipped over' });
     expect(gone.body.parts[0]!.actualG!).toBeCloseTo(100, 1);
     const lead = await login(hub, DEMO.lead.email, DEMO.lead.password);
-    const list = await call<Batch[]>(hub, 'GET', '/api/batches?benchId=bench-1', { token: lead });
-    expect(list.body.map((x) => x.state)).toEqual(['abandoned', 'saved', 'saved']);
+    const list = await call<BatchPage>(hub, 'GET', '/api/batches?benchId=bench-1', {
+      token: lead,
+    });
+    expect(list.body.items.map((x) => x.state)).toEqual(['abandoned', 'saved', 'saved']);
   });
 
   it('refuses a second open batch on the bench, and an operator at another bench', async () => {

@@ -316,12 +316,33 @@ function validBodies(f: Fixtures): Record<string, unknown> {
       lots: [{ part: 0, code: 'FZ-LOT-1' }],
     },
     'POST /api/batches/:id/abandon': { reason: 'fuzz probe' },
+    'POST /api/batches/:id/dispositions': {
+      decision: 'hold',
+      reason: 'fuzz probe',
+      password: 'not-the-password',
+    },
   };
 }
 
 const QUERY_KEYS: Record<string, readonly string[]> = {
   'GET /api/lots': ['materialId'],
-  'GET /api/batches': ['benchId', 'state', 'limit'],
+  'GET /api/batches': [
+    'benchId',
+    'state',
+    'limit',
+    'from',
+    'to',
+    'materialId',
+    'operatorId',
+    'verdict',
+    'disposition',
+    'lot',
+    'sort',
+    'cursor',
+  ],
+  'GET /api/batches/export.csv': ['from', 'to', 'lot', 'sort', 'verdict', 'disposition'],
+  'GET /api/audit': ['entity', 'entityId', 'cursor', 'limit'],
+  'GET /api/accuracy': ['groupBy', 'bucket', 'from', 'to'],
   'GET /api/batches/current': ['benchId'],
 };
 

@@ -3,6 +3,7 @@ import { benchIdSchema } from './benches.js';
 import { lotWarningSchema, materialIdSchema } from './materials.js';
 import { roleSchema } from './roles.js';
 import { positiveMeasure } from './mix/cavity.js';
+import { pageOf } from './page.js';
 import { text } from './text.js';
 
 /** A batch number as it appears in an address: PostgreSQL `integer` ids, 1 to 2³¹ − 1. */
@@ -56,12 +57,59 @@ export const abandonBatchSchema = z.object({
     .max(500),
 });
 
-/** Query of `GET /api/batches`: the latest batches, of one bench or in one state if asked. */
-export const batchListQuerySchema = z.object({
+/** How a lead orders the batch list: newest first unless asked; `absDeviation` is |off ratio|. */
+export const batchSortSchema = z.enum([
+  '-createdAt',
+  'createdAt',
+  'ratioDeviationPct',
+  '-ratioDeviationPct',
+  'absDeviation',
+  '-absDeviation',
+]);
+export type BatchSort = z.infer<typeof batchSortSchema>;
+
+/** What a lead decided about a saved batch. */
+export const dispositionDecisionSchema = z.enum(['release', 'hold', 'scrap']);
+export type DispositionDecision = z.infer<typeof dispositionDecisionSchema>;
+
+/** A decision to filter by, or `none`: not decided yet. */
+export const batchDispositionFilterOptions = z.enum([...dispositionDecisionSchema.options, 'none']);
+
+/** A time in a query: ISO 8601 with its offset (`2026-12-02T08:00:00Z`). */
+const queryTime = (field: string) =>
+  text()
+    .max(40)
+    .pipe(
+      z.iso.datetime({
+        offset: true,
+        error: `Give ${field} as an ISO time with its offset, like 2026-12-02T08:00:00Z`,
+      }),
+    );
+
+/** The filters of the batch list and of its CSV export. `from` is inclusive, `to` exclusive. */
+export const batchFilterSchema = z.object({
+  from: queryTime('from').optional(),
+  to: queryTime('to').optional(),
+  materialId: materialIdSchema.optional(),
   benchId: benchIdSchema.optional(),
+  operatorId: text().trim().min(1).max(80).optional(),
+  verdict: batchVerdictSchema.optional(),
   state: batchStateSchema.optional(),
+  /** The latest decision on the batch; `none`: not decided yet. */
+  disposition: batchDispositionFilterOptions.optional(),
+  /** Matches the lot code of any part, letter case aside. */
+  lot: text().trim().min(1).max(80).optional(),
+  sort: batchSortSchema.default('-createdAt'),
+});
+export type BatchFilter = z.input<typeof batchFilterSchema>;
+
+/** Query of `GET /api/batches`: the filters, and a page of them after `cursor`. */
+export const batchListQuerySchema = batchFilterSchema.extend({
+  /** `nextCursor` of the page before, as the hub gave it. */
+  cursor: text().max(200).optional(),
   limit: z.coerce.number().int().min(1).max(500).default(50),
 });
+export type BatchListQuery = z.input<typeof batchListQuerySchema>;
 
 /** Query of `GET /api/batches/current`: the bench whose open batch is asked for. */
 export const currentBatchQuerySchema = z.object({
@@ -101,6 +149,37 @@ export const rescueSchema = z.object({
   fits: z.boolean().nullable(),
 });
 export type Rescue = z.infer<typeof rescueSchema>;
+
+/** A decision on a batch, as recorded: who signed it and when. Never edited or deleted. */
+export const dispositionSchema = z.object({
+  decision: dispositionDecisionSchema,
+  reason: z.string().nullable(),
+  by: z.object({ id: z.string(), name: z.string() }),
+  at: z.string(),
+});
+export type Disposition = z.infer<typeof dispositionSchema>;
+
+/** Body of `POST /api/batches/:id/dispositions`: the decision, signed with the lead's password. */
+export const createDispositionSchema = z
+  .object({
+    decision: dispositionDecisionSchema,
+    reason: text({ multiline: true }).trim().max(500).optional(),
+    password: text({ error: 'Enter your password to sign' })
+      .min(1, {
+        error: 'Enter your password to sign',
+      })
+      .max(200),
+  })
+  .superRefine((body, ctx) => {
+    if (body.decision !== 'release' && !body.reason) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['reason'],
+        message: `Say why the batch is ${body.decision === 'hold' ? 'held' : 'scrapped'}`,
+      });
+    }
+  });
+export type CreateDisposition = z.input<typeof createDispositionSchema>;
 
 export const batchSchema = z.object({
   id: z.number().int(),
@@ -149,8 +228,26 @@ export const batchSchema = z.object({
   savedAt: z.string().nullable(),
   /** Every reading of the batch as [ms since start, net g]. Only on the single-batch answer. */
   trace: z.array(z.tuple([z.number(), z.number()])).optional(),
+  /** The latest decision on the batch, null before any. Only on the single-batch answer. */
+  disposition: dispositionDecisionSchema.nullable().optional(),
+  /** Every decision on the batch, oldest first. Only on the single-batch answer. */
+  dispositions: z.array(dispositionSchema).optional(),
 });
 export type Batch = z.infer<typeof batchSchema>;
+
+/** One row of the batch list: a batch without its trace, pour and rescue, with its decision. */
+export const batchSummarySchema = batchSchema
+  .omit({ trace: true, active: true, rescue: true, dispositions: true })
+  .extend({
+    disposition: dispositionDecisionSchema.nullable(),
+    /** The bench's name as it is now; null if the bench is gone. */
+    benchName: z.string().nullable(),
+  });
+export type BatchSummary = z.infer<typeof batchSummarySchema>;
+
+/** Answer of `GET /api/batches`. */
+export const batchPageSchema = pageOf(batchSummarySchema);
+export type BatchPage = z.infer<typeof batchPageSchema>;
 
 /** Live socket event: the bench's batch changed state (or there is none any more). */
 export const batchEventSchema = z.object({
@@ -179,3 +276,39 @@ export const pourEventSchema = z.object({
   saveProblem: z.string().optional(),
 });
 export type PourEvent = z.infer<typeof pourEventSchema>;
+
+/** Query of `GET /api/accuracy`: saved batches grouped, by day or week (UTC), in a time range. */
+export const accuracyQuerySchema = z.object({
+  groupBy: z.enum(['material', 'bench', 'operator']),
+  bucket: z.enum(['day', 'week']).default('week'),
+  from: queryTime('from').optional(),
+  to: queryTime('to').optional(),
+});
+export type AccuracyQuery = z.input<typeof accuracyQuerySchema>;
+
+/** How close one group came to the ratio in one day or week. */
+export const accuracyRowSchema = z.object({
+  groupId: z.string(),
+  groupName: z.string(),
+  /** The start of the day or week (Monday), UTC. */
+  bucketStart: z.string(),
+  /** Saved batches. */
+  count: z.number().int(),
+  /** Share of them saved GO, 0 to 1. */
+  goShare: z.number(),
+  meanDeviationPct: z.number().nullable(),
+  /** Sample standard deviation (n − 1); null for a single batch. */
+  sdDeviationPct: z.number().nullable(),
+  /** 95th percentile of |deviation|, interpolated between the two nearest batches. */
+  p95AbsDeviationPct: z.number().nullable(),
+  /** Batches where a rescue was taken. */
+  rescues: z.number().int(),
+});
+export type AccuracyRow = z.infer<typeof accuracyRowSchema>;
+
+export const accuracyAnswerSchema = z.object({
+  groupBy: accuracyQuerySchema.shape.groupBy,
+  bucket: accuracyQuerySchema.shape.bucket.unwrap(),
+  rows: z.array(accuracyRowSchema),
+});
+export type AccuracyAnswer = z.infer<typeof accuracyAnswerSchema>;

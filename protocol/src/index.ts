@@ -12,3 +12,5 @@ export * from './scale-link.js';
 export * from './benches.js';
 export * from './scale-stability.js';
 export * from './alerts.js';
+export * from './audit.js';
+export * from './page.js';

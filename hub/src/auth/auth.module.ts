@@ -61,6 +61,6 @@ import { TokenService } from './token.service.js';
     { provide: SOCKET_AUTHENTICATOR, useExisting: JwtSocketAuthenticator },
     { provide: APP_GUARD, useClass: AccessGuard },
   ],
-  exports: [SOCKET_AUTHENTICATOR, CredentialHasher, TokenService, CLOCK],
+  exports: [SOCKET_AUTHENTICATOR, CredentialHasher, TokenService, SignInService, CLOCK],
 })
 export class AuthModule {}

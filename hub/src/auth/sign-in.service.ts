@@ -68,6 +68,20 @@ export class SignInService {
     return this.session(person, undefined);
   }
 
+  /**
+   * Checks the signed-in person's password again, to sign a record (an electronic signature).
+   * A wrong one is refused like a wrong sign-in, but the session goes on.
+   */
+  async confirmPassword(user: AuthUser, password: string): Promise<void> {
+    const person = await this.people.findById(user.id);
+    const ok = await this.hasher.verifySecret(password, person?.passwordHash);
+    if (!ok || !person?.active) {
+      throw new NotSignedIn('Password not recognised: the decision is not signed', [
+        { path: 'password', message: 'Password not recognised' },
+      ]);
+    }
+  }
+
   async me(user: AuthUser): Promise<MeResponse> {
     const bench = user.benchId ? await this.signIns.findBench(user.benchId) : undefined;
     return {

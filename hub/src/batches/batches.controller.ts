@@ -7,14 +7,20 @@ import {
   type PipeTransform,
   Post,
   Query,
+  StreamableFile,
+  UseGuards,
 } from '@nestjs/common';
+import { ThrottlerGuard } from '@nestjs/throttler';
 import {
   abandonBatchSchema,
+  batchFilterSchema,
   batchListQuerySchema,
   batchNumberSchema,
   createBatchSchema,
+  createDispositionSchema,
   currentBatchQuerySchema,
   type Batch,
+  type BatchPage,
 } from '@tareline/protocol';
 import { z } from 'zod';
 import { Roles } from '../auth/access.decorator.js';
@@ -22,6 +28,7 @@ import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { InvalidInput } from '../common/domain-errors.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { BatchDeskService } from './batch-desk.service.js';
 import { BatchesService } from './batches.service.js';
 
 const listQuerySchema = batchListQuerySchema;
@@ -41,14 +48,30 @@ const batchId = new BatchNumberPipe();
 @Controller('batches')
 @Roles('operator', 'lead', 'admin')
 export class BatchesController {
-  constructor(@Inject(BatchesService) private readonly batches: BatchesService) {}
+  constructor(
+    @Inject(BatchesService) private readonly batches: BatchesService,
+    @Inject(BatchDeskService) private readonly desk: BatchDeskService,
+  ) {}
 
+  /** A page of batches by filter and sort; an operator's are their own bench's. */
   @Get()
   list(
     @Query(new ZodValidationPipe(listQuerySchema)) q: z.output<typeof listQuerySchema>,
     @CurrentUser() user: AuthUser,
-  ) {
-    return this.batches.list(q, user);
+  ): Promise<BatchPage> {
+    return this.desk.search(q, user);
+  }
+
+  /** Every batch the filters match, as CSV, streamed. Declared before `:id`, which it is not. */
+  @Get('export.csv')
+  @Roles('lead', 'admin')
+  exportCsv(
+    @Query(new ZodValidationPipe(batchFilterSchema)) q: z.output<typeof batchFilterSchema>,
+  ): StreamableFile {
+    return new StreamableFile(this.desk.exportCsv(q), {
+      type: 'text/csv; charset=utf-8',
+      disposition: 'attachment; filename="batches.csv"',
+    });
   }
 
   /** The bench's batch in progress, so a reloaded bench screen picks it up again. */
@@ -62,7 +85,21 @@ export class BatchesController {
 
   @Get(':id')
   get(@Param('id', batchId) id: number, @CurrentUser() user: AuthUser): Promise<Batch> {
-    return this.batches.get(id, user);
+    return this.desk.detail(id, user);
+  }
+
+  /** A lead's decision on a saved batch, signed with their password; never edited afterwards. */
+  @Post(':id/dispositions')
+  @Roles('lead', 'admin')
+  // A password is checked here: guesses count against the address's sign-in budget.
+  @UseGuards(ThrottlerGuard)
+  decide(
+    @Param('id', batchId) id: number,
+    @Body(new ZodValidationPipe(createDispositionSchema, 'The decision is not recorded'))
+    body: z.output<typeof createDispositionSchema>,
+    @CurrentUser() user: AuthUser,
+  ): Promise<Batch> {
+    return this.desk.decide(id, body, user);
   }
 
   @Post()

@@ -1,6 +1,9 @@
 import { Module } from '@nestjs/common';
+import { AuditModule } from '../audit/audit.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
+import { AccuracyController } from './accuracy.controller.js';
+import { BatchDeskService } from './batch-desk.service.js';
 import { BatchRunner } from './batch-runner.js';
 import { BatchesController } from './batches.controller.js';
 import { BatchesRepository } from './batches.repository.js';
@@ -13,9 +16,9 @@ import { BenchSessions } from './bench-sessions.js';
  * and the service (what people ask). They publish `batch.changed` and `pour.judged`.
  */
 @Module({
-  imports: [ScalesModule, MaterialsModule],
-  controllers: [BatchesController],
-  providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService],
+  imports: [ScalesModule, MaterialsModule, AuditModule],
+  controllers: [BatchesController, AccuracyController],
+  providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService, BatchDeskService],
   // The repository for features that store their own rows with a batch's (alerts).
   exports: [BatchesService, BatchesRepository],
 })

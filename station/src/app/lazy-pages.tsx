@@ -9,6 +9,11 @@ export const BatchesPage = lazy(() =>
 export const BatchDetail = lazy(() =>
   import('../features/review/components/batch-detail').then((m) => ({ default: m.BatchDetail })),
 );
+export const AccuracyPage = lazy(() =>
+  import('../features/review/components/accuracy-page').then((m) => ({
+    default: m.AccuracyPage,
+  })),
+);
 export const ReviewRoute = lazy(() =>
   import('./routes/review').then((m) => ({ default: m.ReviewRoute })),
 );

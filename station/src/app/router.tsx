@@ -5,6 +5,7 @@ import { HubStatus } from '../features/health/components/hub-status';
 import { RequireRole } from '../features/auth/components/require-role';
 import {
   AlertsPage,
+  AccuracyPage,
   BatchDetail,
   BatchesPage,
   BenchScaleRoute,
@@ -48,6 +49,14 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['operator', 'lead', 'admin']}>
             <BatchDetail />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'review/accuracy',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <AccuracyPage />
           </RequireRole>
         ),
       },

@@ -21,6 +21,8 @@ export async function apiRequest<S extends z.ZodType>(
   path: string,
   schema: S,
   init: RequestInit = {},
+  /** `signature`: a 401 is a wrong password typed to sign, not a session that ended. */
+  options: { signature?: boolean } = {},
 ): Promise<z.infer<S>> {
   let response: Response;
   const token = getToken();
@@ -40,7 +42,9 @@ export async function apiRequest<S extends z.ZodType>(
   const body: unknown = await response.json().catch(() => undefined);
   if (!response.ok) {
     // The hub no longer accepts this token (signed out elsewhere, expired, switched off).
-    if (response.status === 401 && token && getToken() === token) setSession(null);
+    if (response.status === 401 && !options.signature && token && getToken() === token) {
+      setSession(null);
+    }
     const parsed = apiErrorSchema.safeParse(body);
     throw new ApiRequestError(
       response.status,

@@ -1,3 +1,4 @@
+import { sql } from 'drizzle-orm';
 import {
   customType,
   doublePrecision,
@@ -54,5 +55,17 @@ export const batches = pgTable(
   (t) => [
     index('batches_bench_state').on(t.benchId, t.state),
     index('batches_created').on(t.createdAt),
+    // The lead's list sorted by deviation: the sort keys of `batches.repository.ts` exactly
+    // (a batch without a deviation at the far end each way), with the number that breaks ties.
+    index('batches_dev_up').on(sql`coalesce(${t.ratioDeviationPct}, 'Infinity'::float8)`, t.id),
+    index('batches_dev_down').on(sql`coalesce(${t.ratioDeviationPct}, '-Infinity'::float8)`, t.id),
+    index('batches_absdev_up').on(
+      sql`coalesce(abs(${t.ratioDeviationPct}), 'Infinity'::float8)`,
+      t.id,
+    ),
+    index('batches_absdev_down').on(
+      sql`coalesce(abs(${t.ratioDeviationPct}), '-Infinity'::float8)`,
+      t.id,
+    ),
   ],
 );

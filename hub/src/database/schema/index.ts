@@ -4,3 +4,5 @@ export * from './materials.js';
 export * from './batches.js';
 export * from './people.js';
 export * from './alerts.js';
+export * from './dispositions.js';
+export * from './audit.js';

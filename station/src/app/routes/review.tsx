@@ -17,6 +17,16 @@ export function ReviewRoute() {
           Batches
         </Link>
       </p>
+      <p className="mt-4 text-lg">
+        <Link className="underline" to="/review/batches?state=saved&verdict=NO-GO&disposition=none">
+          NO-GO batches to decide
+        </Link>
+      </p>
+      <p className="mt-4 text-lg">
+        <Link className="underline" to="/review/accuracy">
+          Accuracy over time
+        </Link>
+      </p>
       {hasRole(session, ['admin']) && (
         <p className="mt-4 text-lg">
           <Link className="underline" to="/review/people">

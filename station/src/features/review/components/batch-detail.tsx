@@ -1,9 +1,12 @@
 import { Link, useParams } from 'react-router-dom';
 import { useBatch } from '../api/get-batch';
+import { useBenches } from '../../../lib/benches';
 import { decimalsForReadability } from '../../../lib/grams';
 import { deviationPctText } from '../../../lib/percent';
 import { shownTime } from '../utils';
 import { BatchOutcome } from './batch-outcome';
+import { BatchAudit } from './batch-audit';
+import { DispositionPanel } from './disposition-panel';
 import { PourTraceChart } from './pour-trace-chart';
 
 /** Names of the steps the hub records, in words for the review page. */
@@ -31,6 +34,7 @@ export function BatchDetail() {
   const { batchId } = useParams();
   const id = Number(batchId);
   const batch = useBatch(id);
+  const benches = useBenches();
 
   if (!Number.isInteger(id) || id <= 0) {
     return <p role="alert">“{batchId}” is not a batch number.</p>;
@@ -85,7 +89,7 @@ export function BatchDetail() {
           </>
         )}
         <dt className="text-muted">Bench</dt>
-        <dd>{b.benchId}</dd>
+        <dd>{benches.data?.find((bench) => bench.id === b.benchId)?.name ?? b.benchId}</dd>
         <dt className="text-muted">Mix ratio by weight</dt>
         <dd>{b.weightRatio.join(' : ')}</dd>
         <dt className="text-muted">Off ratio</dt>
@@ -151,6 +155,8 @@ export function BatchDetail() {
         </tbody>
       </table>
 
+      <DispositionPanel batch={b} />
+
       <section aria-labelledby="trace-title">
         <h2 id="trace-title" className="mb-2 text-xl font-semibold">
           Pour trace
@@ -174,6 +180,8 @@ export function BatchDetail() {
           ))}
         </ol>
       </section>
+
+      <BatchAudit batchId={b.id} />
     </article>
   );
 }

@@ -1,0 +1,96 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { and, asc, desc, eq, gt, type SQL } from 'drizzle-orm';
+import { Database, type Db } from '../database/database.js';
+import { auditEntries } from '../database/schema/index.js';
+import { entryHash, GENESIS_HASH, type ChainedFields, type StoredEntry } from './audit-chain.js';
+
+/** A Drizzle transaction: other repositories write in it and the trail appends in the same one. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** An entry to append: the chain gives it its id and hashes. */
+export type AuditInput = Omit<ChainedFields, 'id'>;
+
+type AuditRow = typeof auditEntries.$inferSelect;
+
+const toStored = (row: AuditRow): StoredEntry => ({
+  id: row.id,
+  at: row.at.toISOString(),
+  actor: row.actor ?? null,
+  entity: row.entity,
+  entityId: row.entityId,
+  action: row.action,
+  data: row.data,
+  prevHash: row.prevHash,
+  hash: row.hash,
+});
+
+/** The only place that talks SQL about the audit trail. */
+@Injectable()
+export class AuditRepository {
+  constructor(@Inject(Database) private readonly database: Database) {}
+
+  /**
+   * Runs `write` and appends the entry it leads to, in one transaction: either both are stored or
+   * neither. PGlite runs one transaction at a time, so the last hash read here stays the last.
+   */
+  record<T>(write: (tx: Tx) => Promise<T>, entryOf: (result: T) => AuditInput): Promise<T> {
+    return this.database.db.transaction(async (tx) => {
+      const result = await write(tx);
+      await this.appendIn(tx, entryOf(result));
+      return result;
+    });
+  }
+
+  /** Appends one entry on its own, unless the latest entry of its entity says the same. */
+  appendUnlessSame(entry: AuditInput, same: (latest: StoredEntry) => boolean): Promise<void> {
+    return this.database.db.transaction(async (tx) => {
+      const [latest] = await tx
+        .select()
+        .from(auditEntries)
+        .where(
+          and(eq(auditEntries.entity, entry.entity), eq(auditEntries.entityId, entry.entityId)),
+        )
+        .orderBy(desc(auditEntries.id))
+        .limit(1);
+      if (latest && same(toStored(latest))) return;
+      await this.appendIn(tx, entry);
+    });
+  }
+
+  private async appendIn(tx: Tx, entry: AuditInput): Promise<void> {
+    const [last] = await tx
+      .select({ id: auditEntries.id, hash: auditEntries.hash })
+      .from(auditEntries)
+      .orderBy(desc(auditEntries.id))
+      .limit(1);
+    const prevHash = last?.hash ?? GENESIS_HASH;
+    // The time kept to the millisecond, as the hash saw it.
+    const fields: ChainedFields = { ...entry, id: (last?.id ?? 0) + 1 };
+    await tx.insert(auditEntries).values({
+      ...fields,
+      at: new Date(fields.at),
+      prevHash,
+      hash: entryHash(prevHash, fields),
+    });
+  }
+
+  /** Entries oldest first, after the id `afterId`, of one entity if asked. */
+  async list(q: {
+    entity?: string;
+    entityId?: string;
+    afterId?: number;
+    limit: number;
+  }): Promise<StoredEntry[]> {
+    const where: SQL[] = [];
+    if (q.entity) where.push(eq(auditEntries.entity, q.entity));
+    if (q.entityId) where.push(eq(auditEntries.entityId, q.entityId));
+    if (q.afterId !== undefined) where.push(gt(auditEntries.id, q.afterId));
+    const rows = await this.database.db
+      .select()
+      .from(auditEntries)
+      .where(where.length ? and(...where) : undefined)
+      .orderBy(asc(auditEntries.id))
+      .limit(q.limit);
+    return rows.map(toStored);
+  }
+}
