@@ -3,6 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Batch, BenchSummary, Material } from '@tareline/protocol';
 import { serveTcp, SimulatedScale, type TcpAdapter } from '@tareline/simulator';
+import { io, type Socket } from 'socket.io-client';
 import { afterAll, describe, expect, it } from 'vitest';
 import { startBuiltHub, type BuiltHub } from './built-hub.js';
 
@@ -33,6 +34,7 @@ interface Row {
   lost: number;
   wrong: number;
   goes: number;
+  verdictsWhileAway: number;
   notes: string[];
 }
 const table: Row[] = [];
@@ -64,6 +66,10 @@ class Bench {
   adapter!: TcpAdapter;
   /** Grams of each part physically poured into the current cup. */
   physical: number[] = [];
+  /** Verdicts the bench screen was sent while the balance's cable was out. */
+  verdictsWhileAway = 0;
+  private socket: Socket | undefined;
+  private unpluggedAt: number | undefined;
 
   constructor(
     private readonly dataDir: string,
@@ -98,6 +104,7 @@ class Bench {
       badge: 'HR-1003',
     });
     this.token = signIn.body.token;
+    this.watchScreen();
     // A balance whose cable is out stays out until the operator plugs it back (in `finish`).
     if (unplugged) return;
     await until('the scale online', async () => {
@@ -106,7 +113,34 @@ class Bench {
     });
   }
 
+  /** What the bench screen is sent: no verdict may come while the scale is away. */
+  private watchScreen(): void {
+    this.socket?.disconnect();
+    this.socket = io(`${this.hub.url}/live`, {
+      query: { benchId: 'bench-1' },
+      auth: { token: this.token },
+      transports: ['websocket'],
+      reconnection: false,
+    });
+    this.socket.on('pour', (event: { verdict: string | null }) => {
+      // A reading already on its way when the cable came out is not a verdict without a scale.
+      const away = this.unpluggedAt !== undefined && Date.now() - this.unpluggedAt > 250;
+      if (away && event.verdict !== null) this.verdictsWhileAway += 1;
+    });
+  }
+
+  unplug(): void {
+    this.scale.unplug();
+    this.unpluggedAt = Date.now();
+  }
+
+  replug(): void {
+    this.unpluggedAt = undefined;
+    this.scale.replug();
+  }
+
   async close(): Promise<void> {
+    this.socket?.disconnect();
     await this.hub?.stop();
     await this.adapter?.close();
     this.scale.stop();
@@ -173,7 +207,7 @@ class Bench {
       if (!b) return undefined;
       if (b.state === 'saved' || b.state === 'abandoned') return b;
       if (b.state === 'interrupted') {
-        if (!this.scale.plugged) this.scale.replug();
+        if (!this.scale.plugged) this.replug();
         await until('the scale online', async () => {
           const benches = await this.api<BenchSummary[]>('GET', '/api/benches');
           return (
@@ -246,7 +280,7 @@ function lies(b: Batch, physical: number[]): string | undefined {
 async function runPoint(point: KillPoint, seed: number): Promise<Row> {
   const dataDir = await mkdtemp(join(tmpdir(), 'tareline-faults-'));
   const bench = new Bench(dataDir, seed);
-  const row: Row = { point, tries: 0, lost: 0, wrong: 0, goes: 0, notes: [] };
+  const row: Row = { point, tries: 0, lost: 0, wrong: 0, goes: 0, verdictsWhileAway: 0, notes: [] };
   try {
     await bench.open();
     const materials = await bench.api<Material[]>('GET', '/api/materials');
@@ -285,7 +319,7 @@ async function runPoint(point: KillPoint, seed: number): Promise<Row> {
           killed = true;
         } else if (point === 'interrupted') {
           await bench.pour(1, targetB * frac, 1);
-          bench.scale.unplug();
+          bench.unplug();
           await until(
             'interrupted',
             async () => (await bench.batch(id))?.state === 'interrupted' || undefined,
@@ -331,12 +365,13 @@ async function runPoint(point: KillPoint, seed: number): Promise<Row> {
       }
     }
     // Every batch of the run is still there, numbered without a gap.
-    const all = await bench.api<Batch[]>('GET', '/api/batches?limit=500');
-    const ids = all.body.map((b) => b.id).sort((a, b) => a - b);
+    const all = await bench.api<{ items: Batch[] }>('GET', '/api/batches?limit=500');
+    const ids = all.body.items.map((b) => b.id).sort((a, b) => a - b);
     if (ids.length !== row.tries || ids.some((id, i) => id !== i + 1)) {
       row.notes.push(`batch numbers ${ids.join(', ')} for ${row.tries} batches`);
       row.lost += Math.max(0, row.tries - ids.length);
     }
+    row.verdictsWhileAway = bench.verdictsWhileAway;
   } finally {
     await bench.close().catch(() => undefined);
     await rm(dataDir, { recursive: true, force: true });
@@ -348,9 +383,12 @@ describe('kill -9 in every batch state, restarted at once', () => {
   afterAll(() => {
     const lines = [
       '',
-      '| state at the kill | tries | batches lost | wrong records | saved GO |',
-      '| --- | ---: | ---: | ---: | ---: |',
-      ...table.map((r) => `| ${r.point} | ${r.tries} | ${r.lost} | ${r.wrong} | ${r.goes} |`),
+      '| state at the kill | tries | batches lost | wrong records | verdicts while the scale was away | saved GO |',
+      '| --- | ---: | ---: | ---: | ---: | ---: |',
+      ...table.map(
+        (r) =>
+          `| ${r.point} | ${r.tries} | ${r.lost} | ${r.wrong} | ${r.verdictsWhileAway} | ${r.goes} |`,
+      ),
       '',
       ...table.flatMap((r) => r.notes.map((n) => `- ${r.point}: ${n}`)),
     ];
@@ -372,6 +410,7 @@ describe('kill -9 in every batch state, restarted at once', () => {
       expect(row.notes).toEqual([]);
       expect(row.lost).toBe(0);
       expect(row.wrong).toBe(0);
+      expect(row.verdictsWhileAway).toBe(0);
     });
   }
 });
