@@ -61,7 +61,10 @@ export function recordOf(row: BatchRow): BatchRecord {
 }
 
 /** A record's working data for the `detail` column, keeping what only the row knows. */
-export function detailFor(rec: BatchRecord, keep: BatchDetail): BatchDetail {
+export function detailFor(
+  rec: BatchRecord,
+  keep: Pick<BatchDetail, 'potLifeMin' | 'potLifeMassG' | 'handledBy' | 'tareLost' | 'tareGrossG'>,
+): BatchDetail {
   return {
     parts: rec.parts,
     active: rec.active,

@@ -17,10 +17,10 @@ import {
 } from './batch-machine.js';
 import {
   BatchesRepository,
+  detailFor,
   detailOf,
   recordOf,
   toBatch,
-  type BatchDetail,
   type BatchListFilter,
   type BatchStore,
 } from './batches.repository.js';
@@ -136,16 +136,10 @@ export class BatchesService {
       lots,
       now: this.sessions.nowIso(),
     });
-    const detail: BatchDetail = {
-      parts: rec.parts,
-      active: rec.active,
-      topUpQueue: rec.topUpQueue,
-      rescue: rec.rescue,
-      steps: rec.steps,
-      lots: rec.lots,
+    const detail = detailFor(rec, {
       potLifeMin: material.potLifeMin ?? null,
       potLifeMassG: material.potLifeMassG ?? null,
-    };
+    });
     const row = await this.store.insert({
       benchId: input.benchId,
       operatorId: user.id,
