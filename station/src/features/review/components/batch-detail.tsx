@@ -8,6 +8,7 @@ import { BatchOutcome } from './batch-outcome';
 import { BatchAudit } from './batch-audit';
 import { DispositionPanel } from './disposition-panel';
 import { PourTraceChart } from './pour-trace-chart';
+import { ratioText } from '../../../lib/ratio';
 
 /** Names of the steps the hub records, in words for the review page. */
 const STEP_SHOWN: Record<string, string> = {
@@ -91,7 +92,7 @@ export function BatchDetail() {
         <dt className="text-muted">Bench</dt>
         <dd>{benches.data?.find((bench) => bench.id === b.benchId)?.name ?? b.benchId}</dd>
         <dt className="text-muted">Mix ratio by weight</dt>
-        <dd>{b.weightRatio.join(' : ')}</dd>
+        <dd>{ratioText(b.weightRatio)}</dd>
         <dt className="text-muted">Off ratio</dt>
         <dd>
           {b.ratioDeviationPct === null ? '\u2013' : deviationPctText(b.ratioDeviationPct)}{' '}
