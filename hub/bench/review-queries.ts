@@ -1,10 +1,12 @@
 /**
  * How the lead's desk queries hold up on many batches. Opens a fresh data folder (migrated),
- * writes N invented batches in 1,000-row inserts, then times through the repository (no HTTP):
- * the first page of the list with each sort and each filter, a page deep in a cursor walk, the
- * CSV export of everything (rows a second, peak RSS) and the accuracy query per group.
+ * seeds N invented batches with the seed script's generator (`hub/scripts/batch-seed.ts`, COPY
+ * chunks), then times through the desk repository (no HTTP): the first page of the list with
+ * each sort and each filter, a page deep in a cursor walk, the accuracy query per group (from the
+ * daily roll-up, and from the batches themselves), and the CSV export of everything (rows a
+ * second, peak RSS).
  *
- *   npx tsx --conditions=@tareline/source hub/bench/review-queries.ts [N]
+ *   npm run bench:review -- [N]        (default 1,000,000)
  *
  * Results go in docs/benchmarks.md by hand, with the machine they ran on.
  */
@@ -15,91 +17,18 @@ import { Writable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import type { BatchSort } from '@tareline/protocol';
 import { AuditRepository } from '../src/audit/audit.repository.js';
-import { BatchDeskService } from '../src/batches/batch-desk.service.js';
-import { BatchesRepository, type BatchSearch } from '../src/batches/batches.repository.js';
-import type { BatchesService } from '../src/batches/batches.service.js';
 import type { SignInService } from '../src/auth/sign-in.service.js';
+import { BatchDeskRepository, type BatchSearch } from '../src/batches/batch-desk.repository.js';
+import { BatchDeskService } from '../src/batches/batch-desk.service.js';
+import type { BatchesRepository } from '../src/batches/batches.repository.js';
+import type { BatchesService } from '../src/batches/batches.service.js';
 import { systemClock } from '../src/common/clock.js';
 import { Database } from '../src/database/database.js';
-import { batches, benches, materials } from '../src/database/schema/index.js';
+import { seedBatches } from '../scripts/batch-seed.js';
 
 const repoRoot = resolve(import.meta.dirname, '..', '..');
-const count = Number(process.argv[2] ?? 100_000);
+const count = Number(process.argv[2] ?? 1_000_000);
 const RUNS = 15;
-
-/** A small deterministic generator, so every run seeds the same batches. */
-function random(seed: number) {
-  let s = seed >>> 0;
-  return () => {
-    s = (Math.imul(s, 1_664_525) + 1_013_904_223) >>> 0;
-    return s / 2 ** 32;
-  };
-}
-
-async function seed(database: Database): Promise<void> {
-  const db = database.db;
-  await db
-    .insert(benches)
-    .values(
-      ['bench-1', 'bench-2', 'bench-3', 'bench-4'].map((id, i) => ({ id, name: `Bench ${i + 1}` })),
-    );
-  const materialIds = ['m-1', 'm-2', 'm-3', 'm-4', 'm-5'];
-  await db.insert(materials).values(
-    materialIds.map((id) => ({
-      id,
-      name: `Material ${id}`,
-      ratioBasis: 'weight' as const,
-      ratioParts: [100, 14],
-      tolerancePct: 1,
-    })),
-  );
-  const next = random(42);
-  const start = Date.parse('2025-01-01T06:00:00Z');
-  for (let first = 0; first < count; first += 1000) {
-    const rows = [];
-    for (let i = first; i < Math.min(count, first + 1000); i += 1) {
-      const r = next();
-      const state = r < 0.04 ? 'abandoned' : 'saved';
-      // Roughly normal deviations (sum of uniforms), sd about 0.5 %.
-      const dev = state === 'saved' ? (next() + next() + next() - 1.5) * 1.0 : null;
-      const createdAt = new Date(start + i * 5 * 60_000);
-      rows.push({
-        id: i + 1,
-        benchId: `bench-${1 + Math.floor(next() * 4)}`,
-        operatorId: `p-${Math.floor(next() * 20)}`,
-        operatorName: 'Invented operator',
-        materialId: materialIds[Math.floor(next() * 5)]!,
-        materialName: 'Invented material',
-        state: state as 'saved' | 'abandoned',
-        verdict: dev === null ? null : Math.abs(dev) > 1 ? ('NO-GO' as const) : ('GO' as const),
-        totalMassG: 114,
-        weightRatio: [100, 14],
-        tolerancePct: 1,
-        readabilityG: 0.01,
-        ratioDeviationPct: dev,
-        detail: {
-          parts: [
-            { label: 'Part A', targetG: 100, actualG: 100 },
-            { label: 'Part B', targetG: 14, actualG: 14 * (1 + (dev ?? 0) / 100) },
-          ],
-          active: null,
-          topUpQueue: [],
-          rescue: null,
-          steps: { created: createdAt.toISOString() },
-          lots: [
-            { part: 0, code: `A-${i % 997}`, lotId: null, warnings: [] },
-            { part: 1, code: `B-${i % 991}`, lotId: null, warnings: [] },
-          ],
-          potLifeMin: null,
-          potLifeMassG: null,
-        },
-        createdAt,
-        savedAt: state === 'saved' ? createdAt : null,
-      });
-    }
-    await db.insert(batches).values(rows);
-  }
-}
 
 async function time(run: () => Promise<unknown>): Promise<{ p50: number; p95: number }> {
   await run();
@@ -119,11 +48,18 @@ async function main(): Promise<void> {
   const database = await Database.open(dir, resolve(repoRoot, 'drizzle'));
   try {
     const seeding = performance.now();
-    await seed(database);
+    const seeded = await seedBatches(database, {
+      count,
+      end: new Date('2026-12-01T00:00:00Z'),
+      onProgress: (n) => {
+        if (n % 100_000 === 0) console.log(`${n} written`);
+      },
+    });
     console.log(
-      `seeded ${count} batches in ${((performance.now() - seeding) / 1000).toFixed(1)} s`,
+      `seeded ${count} batches in ${((performance.now() - seeding) / 1000).toFixed(1)} s:`,
+      JSON.stringify(seeded),
     );
-    const repo = new BatchesRepository(database);
+    const repo = new BatchDeskRepository(database, {} as BatchesRepository);
     const base: BatchSearch = { sort: '-createdAt', limit: 50 };
     const rows: [string, Partial<BatchSearch>][] = [
       ...(
@@ -136,15 +72,25 @@ async function main(): Promise<void> {
           '-absDeviation',
         ] as BatchSort[]
       ).map((sort): [string, Partial<BatchSearch>] => [`sort ${sort}`, { sort }]),
-      ['one week (from, to)', { from: '2025-03-01T00:00:00Z', to: '2025-03-08T00:00:00Z' }],
-      ['materialId', { materialId: 'm-3' }],
-      ['benchId', { benchId: 'bench-2' }],
-      ['operatorId', { operatorId: 'p-7' }],
+      ['one week (from, to)', { from: '2026-03-02T00:00:00Z', to: '2026-03-09T00:00:00Z' }],
+      ['materialId', { materialId: 'seed-mat-epoxy-lam' }],
+      ['benchId', { benchId: 'seed-bench-2' }],
+      ['operatorId', { operatorId: 'seed-op-06' }],
       ['verdict NO-GO', { verdict: 'NO-GO' }],
       ['state abandoned', { state: 'abandoned' }],
       ['disposition none', { disposition: 'none' }],
-      ['lot', { lot: 'A-123' }],
+      ['disposition hold', { disposition: 'hold' }],
+      ['lot (any case)', { lot: 'ure-a2410' }],
       ['NO-GO, worst first', { verdict: 'NO-GO', sort: '-absDeviation' }],
+      [
+        'bench + NO-GO + one month',
+        {
+          benchId: 'seed-bench-1',
+          verdict: 'NO-GO',
+          from: '2026-10-01T00:00:00Z',
+          to: '2026-11-01T00:00:00Z',
+        },
+      ],
     ];
     console.log('\n| list (50 a page) | p50 ms | p95 ms |\n| --- | ---: | ---: |');
     for (const [name, q] of rows) {
@@ -157,12 +103,32 @@ async function main(): Promise<void> {
     const t = await time(() => repo.search({ ...base, after: { key: last.key, id: last.row.id } }));
     console.log(`| page after ${deep.length} rows | ${t.p50.toFixed(1)} | ${t.p95.toFixed(1)} |`);
 
-    console.log('\n| accuracy per | bucket | ms (p50 of runs) |\n| --- | --- | ---: |');
+    // The whole history, and the last twelve weeks (whole UTC days: the roll-up's path).
+    const ranges = [
+      ['whole history', {}],
+      ['12 weeks', { from: '2026-09-08T00:00:00Z', to: '2026-12-01T00:00:00Z' }],
+    ] as const;
+    console.log('\n| accuracy per | bucket | range | rows | roll-up p50 ms | roll-up p95 ms |');
+    console.log('| --- | --- | --- | ---: | ---: | ---: |');
     for (const groupBy of ['material', 'bench', 'operator'] as const) {
       for (const bucket of ['week', 'day'] as const) {
-        const a = await time(() => repo.accuracy({ groupBy, bucket }));
-        console.log(`| ${groupBy} | ${bucket} | ${a.p50.toFixed(0)} |`);
+        for (const [name, range] of ranges) {
+          const q = { groupBy, bucket, ...range };
+          const rows = (await repo.accuracyFromRollUp(q)).length;
+          const a = await time(() => repo.accuracyFromRollUp(q));
+          console.log(
+            `| ${groupBy} | ${bucket} | ${name} | ${rows} | ${a.p50.toFixed(0)} | ${a.p95.toFixed(0)} |`,
+          );
+        }
       }
+    }
+    console.log(
+      '\n| accuracy from the batches (exact p95) | range | ms (one run) |\n| --- | --- | ---: |',
+    );
+    for (const [name, range] of ranges) {
+      const t0 = performance.now();
+      await repo.accuracyFromBatches({ groupBy: 'material', bucket: 'week', ...range });
+      console.log(`| material, week | ${name} | ${(performance.now() - t0).toFixed(0)} |`);
     }
 
     const desk = new BatchDeskService(

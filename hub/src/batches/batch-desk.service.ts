@@ -16,15 +16,13 @@ import { SignInService } from '../auth/sign-in.service.js';
 import { CLOCK, type Clock } from '../common/clock.js';
 import { Conflict, InvalidInput, NotAllowed } from '../common/domain-errors.js';
 import {
-  BatchesRepository,
-  recordOf,
-  toBatch,
+  BatchDeskRepository,
+  type AccuracyQuery,
   type BatchSearch,
   type SearchRow,
-} from './batches.repository.js';
+} from './batch-desk.repository.js';
+import { recordOf, toBatch } from './batches.repository.js';
 import { BatchesService } from './batches.service.js';
-
-type AccuracyQueryOut = Parameters<BatchesRepository['accuracy']>[0];
 
 /** The filters of a list or export, as the query schema gives them. */
 export type DeskFilter = Omit<BatchSearch, 'after' | 'limit'>;
@@ -72,7 +70,7 @@ export function decodeCursor(sort: BatchSort, cursor: string): { key: string | n
 @Injectable()
 export class BatchDeskService {
   constructor(
-    @Inject(BatchesRepository) private readonly repository: BatchesRepository,
+    @Inject(BatchDeskRepository) private readonly repository: BatchDeskRepository,
     @Inject(BatchesService) private readonly batches: BatchesService,
     @Inject(SignInService) private readonly signIn: SignInService,
     @Inject(AuditRepository) private readonly audit: AuditRepository,
@@ -127,7 +125,7 @@ export class BatchDeskService {
   }
 
   /** Accuracy per group and day or week, for the trends a lead watches. */
-  async accuracy(q: AccuracyQueryOut): Promise<AccuracyAnswer> {
+  async accuracy(q: AccuracyQuery): Promise<AccuracyAnswer> {
     return { groupBy: q.groupBy, bucket: q.bucket, rows: await this.repository.accuracy(q) };
   }
 

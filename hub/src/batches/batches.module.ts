@@ -3,6 +3,7 @@ import { AuditModule } from '../audit/audit.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
 import { AccuracyController } from './accuracy.controller.js';
+import { BatchDeskRepository } from './batch-desk.repository.js';
 import { BatchDeskService } from './batch-desk.service.js';
 import { BatchRunner } from './batch-runner.js';
 import { BatchesController } from './batches.controller.js';
@@ -11,14 +12,21 @@ import { BatchesService } from './batches.service.js';
 import { BenchSessions } from './bench-sessions.js';
 
 /**
- * Batches in four rooms: the repository (all batch SQL), the bench sessions (each bench's open
+ * Batches in four rooms: the repositories (a batch's life; the lead's desk and its roll-up), the bench sessions (each bench's open
  * batch, written before it is announced), the runner (readings in, verdicts and auto-save out)
  * and the service (what people ask). They publish `batch.changed` and `pour.judged`.
  */
 @Module({
   imports: [ScalesModule, MaterialsModule, AuditModule],
   controllers: [BatchesController, AccuracyController],
-  providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService, BatchDeskService],
+  providers: [
+    BatchesRepository,
+    BatchDeskRepository,
+    BenchSessions,
+    BatchRunner,
+    BatchesService,
+    BatchDeskService,
+  ],
   // The repository for features that store their own rows with a batch's (alerts).
   exports: [BatchesService, BatchesRepository],
 })

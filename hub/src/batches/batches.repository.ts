@@ -1,18 +1,8 @@
 import { Inject, Injectable } from '@nestjs/common';
-import {
-  WEIGHING_STATES,
-  type AccuracyRow,
-  type Batch,
-  type BatchSort,
-  type BatchState,
-  type BatchVerdict,
-  type Disposition,
-  type DispositionDecision,
-} from '@tareline/protocol';
-import { and, asc, desc, eq, getTableColumns, gte, inArray, lt, sql, type SQL } from 'drizzle-orm';
-import type { Tx } from '../audit/audit.repository.js';
+import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
+import { and, desc, eq, gte, inArray, sql, type SQL } from 'drizzle-orm';
 import { Database, type DbOrTx } from '../database/database.js';
-import { batchDispositions, batches, benches } from '../database/schema/index.js';
+import { batches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
 import { encodeTrace, type TracePoint } from './pour-trace.js';
 
@@ -120,32 +110,6 @@ export interface BatchListFilter {
   limit: number;
 }
 
-/** What a lead looks for; every field narrows the list. */
-export interface BatchSearch {
-  from?: string;
-  to?: string;
-  materialId?: string;
-  benchId?: string;
-  operatorId?: string;
-  verdict?: BatchVerdict;
-  state?: BatchState;
-  disposition?: DispositionDecision | 'none';
-  lot?: string;
-  sort: BatchSort;
-  /** The sort key and id of the last row of the page before (see {@link SearchRow}). */
-  after?: { key: string | null; id: number };
-  limit: number;
-}
-
-/** A row of a search: the batch without its trace, its latest decision, and its sort key. */
-export interface SearchRow {
-  row: BatchRow;
-  benchName: string | null;
-  disposition: DispositionDecision | null;
-  /** The sort key as PostgreSQL prints it, exact (timestamps to the microsecond). */
-  key: string | null;
-}
-
 /** The batch store seen by the rest of the hub. A test gives the rooms a fake of it. */
 export interface BatchStore {
   insert(values: NewBatchRow): Promise<BatchRow>;
@@ -167,41 +131,13 @@ export interface BatchStore {
  * Work another feature stores in the same transaction as a batch's new state (alerts queue
  * their mails), so both are written or neither. It gets the row as it will be committed.
  */
-export type BatchWriteHook = (tx: DbOrTx, row: BatchRow) => Promise<void>;
-const { trace: _trace, ...summaryColumns } = getTableColumns(batches);
-
-/** The latest decision on the batch of the outer query. */
-const latestDisposition = sql<DispositionDecision | null>`(
-  select ${batchDispositions.decision} from ${batchDispositions}
-  where ${batchDispositions.batchId} = ${batches.id}
-  order by ${batchDispositions.id} desc limit 1)`;
-
-/**
- * The key each sort orders by, ties broken by number. A batch without a deviation (abandoned,
- * still weighing) sorts last either way: its key is the infinity at the far end.
- */
-function sortKey(sort: BatchSort): { key: SQL; cast: SQL; descending: boolean } {
-  const descending = sort.startsWith('-');
-  const last = descending ? sql`'-Infinity'::float8` : sql`'Infinity'::float8`;
-  switch (sort.replace(/^-/, '')) {
-    case 'createdAt':
-      return { key: sql`${batches.createdAt}`, cast: sql`timestamptz`, descending };
-    case 'ratioDeviationPct':
-      return {
-        key: sql`coalesce(${batches.ratioDeviationPct}, ${last})`,
-        cast: sql`float8`,
-        descending,
-      };
-    default:
-      return {
-        key: sql`coalesce(abs(${batches.ratioDeviationPct}), ${last})`,
-        cast: sql`float8`,
-        descending,
-      };
-  }
-}
-
-/** The only place that talks SQL about batches. */
+export type BatchWriteHook = (
+  tx: DbOrTx,
+  row: BatchRow,
+  /** The state the row had before this write. */
+  previousState: BatchState,
+) => Promise<void> | undefined;
+/** The SQL of a batch's life on its bench (the lead's desk has `BatchDeskRepository`). */
 @Injectable()
 export class BatchesRepository implements BatchStore {
   private readonly writeHooks: BatchWriteHook[] = [];
@@ -247,8 +183,12 @@ export class BatchesRepository implements BatchStore {
   ): Promise<BatchRow> {
     if (!this.writeHooks.length) return this.updateRecord(this.db, id, rec, detail, trace);
     return this.db.transaction(async (tx) => {
+      const [before] = await tx
+        .select({ state: batches.state })
+        .from(batches)
+        .where(eq(batches.id, id));
       const row = await this.updateRecord(tx, id, rec, detail, trace);
-      for (const hook of this.writeHooks) await hook(tx, row);
+      for (const hook of this.writeHooks) await hook(tx, row, before?.state ?? row.state);
       return row;
     });
   }
@@ -313,123 +253,6 @@ export class BatchesRepository implements BatchStore {
       .from(batches)
       .where(and(inArray(batches.state, ['saved', 'abandoned']), gte(batches.updatedAt, since)))
       .orderBy(batches.id);
-  }
-
-  /** A page of batches matching a lead's filters, in the asked order, after a cursor. */
-  async search(q: BatchSearch): Promise<SearchRow[]> {
-    const { key, cast, descending } = sortKey(q.sort);
-    const where: SQL[] = [];
-    if (q.from) where.push(gte(batches.createdAt, new Date(q.from)));
-    if (q.to) where.push(lt(batches.createdAt, new Date(q.to)));
-    if (q.materialId) where.push(eq(batches.materialId, q.materialId));
-    if (q.benchId) where.push(eq(batches.benchId, q.benchId));
-    if (q.operatorId) where.push(eq(batches.operatorId, q.operatorId));
-    if (q.verdict) where.push(eq(batches.verdict, q.verdict));
-    if (q.state) where.push(eq(batches.state, q.state));
-    if (q.disposition === 'none') where.push(sql`${latestDisposition} is null`);
-    else if (q.disposition) where.push(sql`${latestDisposition} = ${q.disposition}`);
-    if (q.lot) {
-      where.push(sql`exists (select 1 from jsonb_array_elements(${batches.detail}->'lots') l
-        where lower(l->>'code') = lower(${q.lot}))`);
-    }
-    if (q.after) {
-      // A null key is the sort's far infinity, which PostgreSQL reads back from its own text.
-      const value = q.after.key ?? (descending ? '-Infinity' : 'Infinity');
-      const op = descending ? sql`<` : sql`>`;
-      where.push(sql`(${key}, ${batches.id}) ${op} (${value}::${cast}, ${q.after.id})`);
-    }
-    const order = descending ? desc : asc;
-    const rows = await this.db
-      .select({
-        ...summaryColumns,
-        benchName: benches.name,
-        disposition: latestDisposition,
-        key: sql<string | null>`${key}::text`,
-      })
-      .from(batches)
-      .leftJoin(benches, eq(benches.id, batches.benchId))
-      .where(where.length ? and(...where) : undefined)
-      .orderBy(order(key), order(batches.id))
-      .limit(q.limit);
-    return rows.map(({ disposition, key: k, benchName, ...row }) => ({
-      row: { ...row, trace: null },
-      benchName,
-      disposition: disposition ?? null,
-      key: k === 'Infinity' || k === '-Infinity' ? null : k,
-    }));
-  }
-
-  /** Appends a decision, in the caller's transaction (the audit trail appends in the same). */
-  async insertDisposition(tx: Tx, values: typeof batchDispositions.$inferInsert): Promise<void> {
-    await tx.insert(batchDispositions).values(values);
-  }
-
-  /**
-   * Saved batches per group and UTC day or week, all figures computed by PostgreSQL: count, GO
-   * share, mean and sample standard deviation of the deviation, the 95th percentile of its
-   * magnitude (`percentile_cont`, interpolated), and the batches where a rescue was taken.
-   */
-  async accuracy(q: {
-    groupBy: 'material' | 'bench' | 'operator';
-    bucket: 'day' | 'week';
-    from?: string | undefined;
-    to?: string | undefined;
-  }): Promise<AccuracyRow[]> {
-    const [groupId, groupName] = {
-      material: [batches.materialId, sql`max(${batches.materialName})`],
-      bench: [batches.benchId, sql`coalesce(max(${benches.name}), ${batches.benchId})`],
-      operator: [batches.operatorId, sql`max(${batches.operatorName})`],
-    }[q.groupBy];
-    // A literal, not a parameter: GROUP BY must see the same expression as the select list.
-    const unit = sql.raw(q.bucket === 'day' ? `'day'` : `'week'`);
-    const bucketStart = sql`date_trunc(${unit}, ${batches.createdAt}, 'UTC')`;
-    const where: SQL[] = [eq(batches.state, 'saved')];
-    if (q.from) where.push(gte(batches.createdAt, new Date(q.from)));
-    if (q.to) where.push(lt(batches.createdAt, new Date(q.to)));
-    const dev = batches.ratioDeviationPct;
-    const rows = await this.db
-      .select({
-        groupId: sql<string>`${groupId}`,
-        groupName: sql<string>`${groupName}`,
-        bucketStart: sql<Date>`${bucketStart}`.mapWith((v: string | Date) => new Date(v)),
-        count: sql<number>`count(*)::int`,
-        goShare: sql<number>`avg(case when ${batches.verdict} = 'GO' then 1.0 else 0.0 end)::float8`,
-        mean: sql<number | null>`avg(${dev})::float8`,
-        sd: sql<number | null>`stddev_samp(${dev})::float8`,
-        p95: sql<number | null>`percentile_cont(0.95) within group (order by abs(${dev}))`,
-        rescues: sql<number>`(count(*) filter (where jsonb_exists(${batches.detail}->'steps', 'rescueTaken')))::int`,
-      })
-      .from(batches)
-      .leftJoin(benches, eq(benches.id, batches.benchId))
-      .where(and(...where))
-      .groupBy(groupId, bucketStart)
-      .orderBy(asc(groupId), asc(bucketStart));
-    return rows.map((r) => ({
-      groupId: r.groupId,
-      groupName: r.groupName,
-      bucketStart: r.bucketStart.toISOString(),
-      count: r.count,
-      goShare: Number(r.goShare),
-      meanDeviationPct: r.mean === null ? null : Number(r.mean),
-      sdDeviationPct: r.sd === null ? null : Number(r.sd),
-      p95AbsDeviationPct: r.p95 === null ? null : Number(r.p95),
-      rescues: r.rescues,
-    }));
-  }
-
-  /** Every decision on a batch, oldest first. */
-  async dispositions(batchId: number): Promise<Disposition[]> {
-    const rows = await this.db
-      .select()
-      .from(batchDispositions)
-      .where(eq(batchDispositions.batchId, batchId))
-      .orderBy(asc(batchDispositions.id));
-    return rows.map((r) => ({
-      decision: r.decision,
-      reason: r.reason,
-      by: { id: r.byId, name: r.byName },
-      at: r.at.toISOString(),
-    }));
   }
 
   list(filter: BatchListFilter): Promise<BatchRow[]> {

@@ -55,6 +55,14 @@ export class Database {
     return this.client.dumpDataDir('gzip');
   }
 
+  /** Bulk load: rows as CSV text into `table`'s `columns`, one COPY (the batch seed script). */
+  async copyCsv(table: string, columns: readonly string[], csv: string): Promise<void> {
+    const list = columns.map((c) => `"${c}"`).join(', ');
+    await this.client.query(`copy "${table}" (${list}) from '/dev/blob' with (format csv)`, [], {
+      blob: new Blob([csv]),
+    });
+  }
+
   /** True when the database answers a trivial query. */
   async ping(): Promise<void> {
     await this.db.execute(sql`select 1`);

@@ -1,6 +1,7 @@
-import { sql } from 'drizzle-orm';
+import { sql, type SQL } from 'drizzle-orm';
 import {
   customType,
+  type AnyPgColumn,
   doublePrecision,
   index,
   jsonb,
@@ -11,6 +12,10 @@ import {
 } from 'drizzle-orm/pg-core';
 import { benches } from './benches.js';
 import { materials } from './materials.js';
+
+/** A batch's lot codes, lower-cased, as a JSON array of strings (what the GIN index holds). */
+export const lotCodesKey = (detail: AnyPgColumn | SQL) =>
+  sql`(lower(jsonb_path_query_array(${detail}, '$.lots[*].code')::text)::jsonb)`;
 
 const bytea = customType<{ data: Uint8Array; driverData: Uint8Array }>({
   dataType: () => 'bytea',
@@ -55,6 +60,10 @@ export const batches = pgTable(
   (t) => [
     index('batches_bench_state').on(t.benchId, t.state),
     index('batches_created').on(t.createdAt),
+    // A bench's batches newest first (the lead's list filtered by bench, the default order).
+    index('batches_bench_created').on(t.benchId, t.createdAt, t.id),
+    // The lead's lot search: the search filters on the same `lotCodesKey` expression (`@>`).
+    index('batches_lot_codes').using('gin', lotCodesKey(t.detail)),
     // The lead's list sorted by deviation: the sort keys of `batches.repository.ts` exactly
     // (a batch without a deviation at the far end each way), with the number that breaks ties.
     index('batches_dev_up').on(sql`coalesce(${t.ratioDeviationPct}, 'Infinity'::float8)`, t.id),
