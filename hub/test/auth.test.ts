@@ -162,7 +162,7 @@ describe('sign-in, on a hub with the demo shop', () => {
   it('answers the badge of a switched-off person without a PIN exactly like an unknown badge', async () => {
     const people = hub.app.get(PeopleRepository);
     const joss = (await people.list()).find((p) => p.name === 'Joss Whitcombe')!;
-    await people.update(joss.id, { active: false });
+    await people.update(joss.id, { active: false }, () => []);
     try {
       const unknownScan = await badgeSignIn(hub, 'ZZ-7777');
       const switchedOffScan = await badgeSignIn(hub, DEMO.joss.badge);
@@ -176,7 +176,7 @@ describe('sign-in, on a hub with the demo shop', () => {
         body: { message: 'Badge or PIN not recognised', errors: [] },
       });
     } finally {
-      await people.update(joss.id, { active: true });
+      await people.update(joss.id, { active: true }, () => []);
     }
   });
 
@@ -184,7 +184,7 @@ describe('sign-in, on a hub with the demo shop', () => {
     const signedIn = await badgeSignIn(hub, DEMO.tomas.badge, DEMO.tomas.pin);
     const people = hub.app.get(PeopleRepository);
     const tomas = (await people.list()).find((p) => p.name === 'Tomas Reyl')!;
-    await people.update(tomas.id, { active: false });
+    await people.update(tomas.id, { active: false }, () => []);
     try {
       const again = await badgeSignIn(hub, DEMO.tomas.badge, DEMO.tomas.pin);
       expect(again.status).toBe(403);
@@ -195,7 +195,7 @@ describe('sign-in, on a hub with the demo shop', () => {
       expect(me.status).toBe(401);
       expect(me.body.message).toBe('Your sign-in has been switched off: ask an admin');
     } finally {
-      await people.update(tomas.id, { active: true });
+      await people.update(tomas.id, { active: true }, () => []);
     }
   });
 

@@ -105,11 +105,11 @@ describe('live socket authenticator (SOCKET_AUTHENTICATOR)', () => {
       benchId: 'bench-1',
     });
     const people = hub.app.get(PeopleRepository);
-    await people.update(principal.userId, { active: false });
+    await people.update(principal.userId, { active: false }, () => []);
     try {
       expect(await sockets.stillValid(principal)).toBe(false);
     } finally {
-      await people.update(principal.userId, { active: true });
+      await people.update(principal.userId, { active: true }, () => []);
     }
   });
 });

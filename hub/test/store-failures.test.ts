@@ -1,3 +1,4 @@
+import type { AuditPage, Person } from '@tareline/protocol';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { Database } from '../src/database/database.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
@@ -17,6 +18,17 @@ function fillTheDisk(hub: TestHub): void {
   vi.spyOn(db, 'insert').mockImplementation(diskFull);
   vi.spyOn(db, 'update').mockImplementation(diskFull);
   vi.spyOn(db, 'delete').mockImplementation(diskFull);
+  // Writes inside a transaction (a change and its audit entry) go through the transaction's own
+  // query builder: a full disk fails those the same way.
+  const transaction = db.transaction.bind(db);
+  vi.spyOn(db, 'transaction').mockImplementation((work, config) =>
+    transaction(async (tx) => {
+      vi.spyOn(tx, 'insert').mockImplementation(diskFull);
+      vi.spyOn(tx, 'update').mockImplementation(diskFull);
+      vi.spyOn(tx, 'delete').mockImplementation(diskFull);
+      return work(tx);
+    }, config),
+  );
 }
 
 /** Frees the disk, stops the hub (which writes what waited) and starts it again on its data. */
@@ -84,8 +96,27 @@ describe('a hub whose disk is full', { timeout: 90_000 }, () => {
     expect(added.status).toBe(503);
     expect(added.body.message).toContain('nothing was changed');
 
+    const joss = (await call<Person[]>(hub, 'GET', '/api/people', { token: admin })).body.find(
+      (p) => p.name === 'Joss Whitcombe',
+    )!;
+    const renamed = await call<{ message: string }>(hub, 'PATCH', `/api/people/${joss.id}`, {
+      token: admin,
+      body: { name: 'Joss Whitcombe-Ash' },
+    });
+    expect(renamed.status).toBe(503);
+    expect(renamed.body.message).toContain('nothing was changed');
+
     vi.restoreAllMocks();
-    const people = await call<{ name: string }[]>(hub, 'GET', '/api/people', { token: admin });
+    const people = await call<Person[]>(hub, 'GET', '/api/people', { token: admin });
     expect(people.body.map((p) => p.name)).not.toContain('Noor Ashgrove');
+    expect(people.body.find((p) => p.id === joss.id)).toMatchObject({
+      name: 'Joss Whitcombe',
+      role: 'operator',
+    });
+    // Nor did the audit trail keep an entry of either.
+    const trail = await call<AuditPage>(hub, 'GET', '/api/audit?entity=person&limit=500', {
+      token: admin,
+    });
+    expect(trail.body.items.filter((e) => e.action !== 'person.created' || e.actor)).toEqual([]);
   });
 });

@@ -10,6 +10,15 @@ export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 /** An entry to append: the chain gives it its id and hashes. */
 export type AuditInput = Omit<ChainedFields, 'id'>;
 
+/** Who made a change: a signed-in person, or null for the hub itself (first start, demo shop). */
+export type Actor = ChainedFields['actor'];
+
+/** The actor of a signed-in person: their id and name only (what the entry's hash covers). */
+export const actorOf = (user: { id: string; name: string }): Actor => ({
+  id: user.id,
+  name: user.name,
+});
+
 type AuditRow = typeof auditEntries.$inferSelect;
 
 const toStored = (row: AuditRow): StoredEntry => ({
@@ -30,13 +39,17 @@ export class AuditRepository {
   constructor(@Inject(Database) private readonly database: Database) {}
 
   /**
-   * Runs `write` and appends the entry it leads to, in one transaction: either both are stored or
-   * neither. PGlite runs one transaction at a time, so the last hash read here stays the last.
+   * Runs `write` and appends the entries it leads to (one, several, or none when it changed
+   * nothing), in one transaction: either all are stored or none. PGlite runs one transaction at
+   * a time, so the last hash read here stays the last.
    */
-  record<T>(write: (tx: Tx) => Promise<T>, entryOf: (result: T) => AuditInput): Promise<T> {
+  record<T>(
+    write: (tx: Tx) => Promise<T>,
+    entryOf: (result: T) => AuditInput | AuditInput[],
+  ): Promise<T> {
     return this.database.db.transaction(async (tx) => {
       const result = await write(tx);
-      await this.appendIn(tx, entryOf(result));
+      for (const entry of [entryOf(result)].flat()) await this.appendIn(tx, entry);
       return result;
     });
   }

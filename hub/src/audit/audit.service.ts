@@ -1,8 +1,8 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
-import type { AuditPage, AuditVerify, BatchEvent } from '@tareline/protocol';
+import type { AuditPage, AuditVerify } from '@tareline/protocol';
 import { CLOCK, type Clock } from '../common/clock.js';
 import { InvalidInput } from '../common/domain-errors.js';
-import { OnHubEvent } from '../events/hub-events.js';
+import { OnHubEvent, type HubEventMap } from '../events/hub-events.js';
 import { firstBroken, GENESIS_HASH } from './audit-chain.js';
 import { AuditRepository } from './audit.repository.js';
 
@@ -23,12 +23,13 @@ export class AuditService {
   ) {}
 
   /**
-   * A batch's state or verdict changed. The event does not say who acted, so the entry names the
-   * batch's operator in its data and no actor. Steps within a state (a tare, a confirmed part
+   * A batch's state or verdict changed. The entry's actor is the person who acted when the event
+   * says (`by`), else none (the hub itself saved it); its data names the batch's operator. Steps
+   * within a state (a tare, a confirmed part
    * that keeps the state) are in the batch record itself, not here.
    */
   @OnHubEvent('batch.changed')
-  async onBatchChanged(event: BatchEvent): Promise<void> {
+  async onBatchChanged(event: HubEventMap['batch.changed']): Promise<void> {
     const batch = event.batch;
     if (!batch) return;
     const data = {
@@ -42,7 +43,7 @@ export class AuditService {
       await this.repository.appendUnlessSame(
         {
           at: new Date(this.clock.now()).toISOString(),
-          actor: null,
+          actor: event.by ? { id: event.by.id, name: event.by.name } : null,
           entity: 'batch',
           entityId: String(batch.id),
           action: `state.${batch.state}`,

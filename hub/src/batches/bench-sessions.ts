@@ -136,14 +136,18 @@ export class BenchSessions {
       const before = session.rec;
       const next = await change(session);
       this.noteHandler(session, user);
-      await this.commit(session, next);
+      await this.commit(session, next, user);
       await this.tareIfNeeded(session, before);
       return toBatch(session.row, session.rec);
     });
   }
 
   /** Stores a new record, then (and only then) updates memory and tells the bench. */
-  async commit(session: BenchSession, rec: BatchRecord): Promise<void> {
+  async commit(
+    session: BenchSession,
+    rec: BatchRecord,
+    by?: Pick<AuthUser, 'id' | 'name'>,
+  ): Promise<void> {
     const keep = detailOf(session.row);
     // A restart's lost tare matters until the batch is resumed.
     const detail = detailFor(rec, {
@@ -170,7 +174,7 @@ export class BenchSessions {
         `Batch ${session.id} ${rec.state}${rec.verdict ? ` ${rec.verdict}` : ''} (deviation ${rec.ratioDeviationPct?.toFixed(2) ?? '–'} %)`,
       );
     }
-    this.announce(session);
+    this.announce(session, by);
   }
 
   /** A new pour on a cup that holds earlier parts: tare it for the operator. */
@@ -304,10 +308,11 @@ export class BenchSessions {
     );
   }
 
-  announce(session: BenchSession): void {
+  announce(session: BenchSession, by?: Pick<AuthUser, 'id' | 'name'>): void {
     this.events.emit('batch.changed', {
       benchId: session.benchId,
       batch: toBatch(session.row, session.rec),
+      ...(by ? { by: { id: by.id, name: by.name } } : {}),
     });
   }
 

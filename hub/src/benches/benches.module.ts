@@ -1,3 +1,4 @@
+import { AuditModule } from '../audit/audit.module.js';
 import { Module } from '@nestjs/common';
 import { ScalesModule } from '../scales/scales.module.js';
 import { BenchesController } from './benches.controller.js';
@@ -5,7 +6,7 @@ import { BenchesRepository } from './benches.repository.js';
 import { BenchesService } from './benches.service.js';
 
 @Module({
-  imports: [ScalesModule],
+  imports: [ScalesModule, AuditModule],
   controllers: [BenchesController],
   providers: [BenchesRepository, BenchesService],
   exports: [BenchesService],

@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { asc, eq } from 'drizzle-orm';
-import { Database } from '../database/database.js';
+import { Database, type DbOrTx } from '../database/database.js';
 import { benches } from '../database/schema/index.js';
 
 export type BenchRow = typeof benches.$inferSelect;
@@ -15,10 +15,10 @@ export class BenchesRepository {
     return this.database.db;
   }
 
-  /** Adds a bench unless one with its id exists; answers the bench as stored. */
-  async insertIfMissing(bench: NewBenchRow): Promise<BenchRow | undefined> {
-    await this.db.insert(benches).values(bench).onConflictDoNothing();
-    return this.findById(bench.id);
+  /** Adds a bench unless one with its id exists; answers the new row, undefined if it existed. */
+  async insertIfMissing(bench: NewBenchRow, db: DbOrTx = this.db): Promise<BenchRow | undefined> {
+    const [row] = await db.insert(benches).values(bench).onConflictDoNothing().returning();
+    return row;
   }
 
   async findById(id: string): Promise<BenchRow | undefined> {

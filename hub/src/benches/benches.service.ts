@@ -6,7 +6,9 @@ import {
   type ScaleLinkSettings,
   type SimulatorStep,
 } from '@tareline/protocol';
+import { AuditRepository, type Actor } from '../audit/audit.repository.js';
 import type { AuthUser } from '../auth/auth-user.js';
+import { CLOCK, type Clock } from '../common/clock.js';
 import { Conflict, NotAllowed, NotApplicable, NotFound } from '../common/domain-errors.js';
 import { HubEvents } from '../events/hub-events.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
@@ -29,10 +31,12 @@ export class BenchesService implements OnApplicationBootstrap {
     @Inject(BenchesRepository) private readonly repository: BenchesRepository,
     @Inject(ScalesService) private readonly scales: ScalesService,
     @Inject(HubEvents) private readonly events: HubEvents,
+    @Inject(AuditRepository) private readonly audit: AuditRepository,
+    @Inject(CLOCK) private readonly clock: Clock,
   ) {}
 
   async onApplicationBootstrap(): Promise<void> {
-    await this.repository.insertIfMissing({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name });
+    await this.insertIfMissing({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name }, null);
     const rows = await this.repository.listActive();
     for (const row of rows) {
       if (!this.scales.has(row.id)) {
@@ -42,11 +46,36 @@ export class BenchesService implements OnApplicationBootstrap {
   }
 
   /** Adds a bench unless one with its id exists, and starts reading its scale. */
-  async add(bench: NewBenchRow): Promise<void> {
-    const row = await this.repository.insertIfMissing(bench);
+  async add(bench: NewBenchRow, by: Actor): Promise<void> {
+    await this.insertIfMissing(bench, by);
+    const row = await this.repository.findById(bench.id);
     if (row?.active && !this.scales.has(row.id)) {
       await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
     }
+  }
+
+  /** Adds a bench unless it exists; a new one is audited with its settings, in one transaction. */
+  private async insertIfMissing(bench: NewBenchRow, by: Actor): Promise<void> {
+    await this.audit.record(
+      (tx) => this.repository.insertIfMissing(bench, tx),
+      (created) =>
+        created
+          ? {
+              at: new Date(this.clock.now()).toISOString(),
+              actor: by,
+              entity: 'bench',
+              entityId: created.id,
+              action: 'bench.created',
+              data: {
+                name: created.name,
+                scaleUrl: created.scaleUrl,
+                pinRequired: created.pinRequired,
+                idleSignOutMin: created.idleSignOutMin,
+                active: created.active,
+              },
+            }
+          : [],
+    );
   }
 
   /** A bench's stored URL, else the hub's default; a bad stored URL falls back loudly. */

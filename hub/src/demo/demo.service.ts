@@ -41,7 +41,7 @@ export class DemoService implements OnApplicationBootstrap {
       name: 'benches',
       order: 20,
       run: async () => {
-        for (const bench of DEMO_BENCHES) await this.benches.add({ ...bench });
+        for (const bench of DEMO_BENCHES) await this.benches.add({ ...bench }, null);
       },
     });
     this.register({ name: 'materials and lots', order: 30, run: () => this.seedMaterials() });
@@ -63,12 +63,10 @@ export class DemoService implements OnApplicationBootstrap {
     if ((await this.peopleStore.count()) > 0) return;
     const admin = this.config.auth.firstAdmin;
     if (admin) {
-      await this.people.create({
-        name: 'Administrator',
-        role: 'admin',
-        email: admin.email,
-        password: admin.password,
-      });
+      await this.people.create(
+        { name: 'Administrator', role: 'admin', email: admin.email, password: admin.password },
+        null,
+      );
       this.logger.log(`First admin created for ${admin.email}`);
     }
     if (!this.config.demo.enabled) return;
@@ -92,18 +90,19 @@ export class DemoService implements OnApplicationBootstrap {
           : undefined;
       rows.push(await this.people.newRow({ ...person, email }));
     }
-    await this.peopleStore.insertMany(rows);
+    await this.people.createMany(rows, null);
   }
 
   private async seedMaterials(): Promise<void> {
     const ids = new Map<string, string>();
     for (const material of DEMO_MATERIALS) {
-      const created = await this.materials.create(materialInputSchema.parse(material));
+      const created = await this.materials.create(materialInputSchema.parse(material), null);
       ids.set(material.name, created.id);
     }
     for (const { material, ...lot } of DEMO_LOTS) {
       await this.materials.createLot(
         lotInputSchema.parse({ ...lot, materialId: ids.get(material) }),
+        null,
       );
     }
   }

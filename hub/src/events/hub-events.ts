@@ -14,8 +14,11 @@ import type {
  * subscribe to the same names without the batch code changing.
  */
 export interface HubEventMap {
-  /** A batch was written with a new state (created, a step, saved, interrupted…). */
-  'batch.changed': BatchEvent;
+  /**
+   * A batch was written with a new state (created, a step, saved, interrupted…); `by` is the
+   * person whose action it was, when one was (not an automatic save or a restart).
+   */
+  'batch.changed': BatchEvent & { by?: { id: string; name: string } };
   /** A reading was judged against the open batch of its bench. */
   'pour.judged': PourEvent;
   /** A bench's scale changed state (online, stale, offline, error). */

@@ -8,7 +8,10 @@ import {
   type Material,
 } from '@tareline/protocol';
 import type { z } from 'zod';
+import { actorOf } from '../audit/audit.repository.js';
 import { Roles } from '../auth/access.decorator.js';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser } from '../auth/current-user.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { MaterialsService } from './materials.service.js';
 
@@ -35,8 +38,9 @@ export class MaterialsController {
   create(
     @Body(new ZodValidationPipe(materialInputSchema, 'The material is not valid'))
     body: z.output<typeof materialInputSchema>,
+    @CurrentUser() user: AuthUser,
   ): Promise<Material> {
-    return this.materials.create(body);
+    return this.materials.create(body, actorOf(user));
   }
 
   @Get('lots')
@@ -52,7 +56,8 @@ export class MaterialsController {
   createLot(
     @Body(new ZodValidationPipe(lotInputSchema, 'The lot is not valid'))
     body: z.output<typeof lotInputSchema>,
+    @CurrentUser() user: AuthUser,
   ): Promise<Lot> {
-    return this.materials.createLot(body);
+    return this.materials.createLot(body, actorOf(user));
   }
 }

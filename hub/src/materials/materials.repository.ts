@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { and, asc, eq } from 'drizzle-orm';
-import { Database } from '../database/database.js';
+import { Database, type DbOrTx } from '../database/database.js';
 import { lots, materials } from '../database/schema/index.js';
 
 export type MaterialRow = typeof materials.$inferSelect;
@@ -32,8 +32,9 @@ export class MaterialsRepository {
     return row;
   }
 
-  async insert(values: NewMaterialRow): Promise<MaterialRow> {
-    const [row] = await this.db.insert(materials).values(values).returning();
+  /** In the caller's transaction when given one (the audit trail appends in the same). */
+  async insert(values: NewMaterialRow, db: DbOrTx = this.db): Promise<MaterialRow> {
+    const [row] = await db.insert(materials).values(values).returning();
     return row!;
   }
 
@@ -59,8 +60,8 @@ export class MaterialsRepository {
     return row;
   }
 
-  async insertLot(values: NewLotRow): Promise<LotRow> {
-    const [row] = await this.db.insert(lots).values(values).returning();
+  async insertLot(values: NewLotRow, db: DbOrTx = this.db): Promise<LotRow> {
+    const [row] = await db.insert(lots).values(values).returning();
     return row!;
   }
 }

@@ -8,6 +8,8 @@ import {
   type Material,
 } from '@tareline/protocol';
 import type { z } from 'zod';
+import { AuditRepository, type Actor, type AuditInput } from '../audit/audit.repository.js';
+import { CLOCK, type Clock } from '../common/clock.js';
 import { Conflict, NotFound } from '../common/domain-errors.js';
 import { MaterialsRepository, type LotRow, type MaterialRow } from './materials.repository.js';
 
@@ -51,7 +53,29 @@ function toLot(row: LotRow, material: Pick<Material, 'openShelfLifeDays'>): Lot 
 /** Material systems and their lots. */
 @Injectable()
 export class MaterialsService {
-  constructor(@Inject(MaterialsRepository) private readonly repository: MaterialsRepository) {}
+  constructor(
+    @Inject(MaterialsRepository) private readonly repository: MaterialsRepository,
+    @Inject(AuditRepository) private readonly audit: AuditRepository,
+    @Inject(CLOCK) private readonly clock: Clock,
+  ) {}
+
+  /** The audit entry of a change to a material or a lot, stored with it. */
+  private entry(
+    by: Actor,
+    entity: 'material' | 'lot',
+    id: string,
+    action: string,
+    data: unknown,
+  ): AuditInput {
+    return {
+      at: new Date(this.clock.now()).toISOString(),
+      actor: by,
+      entity,
+      entityId: id,
+      action,
+      data,
+    };
+  }
 
   async list(): Promise<Material[]> {
     const rows = await this.repository.list();
@@ -64,8 +88,9 @@ export class MaterialsService {
     return toMaterial(row);
   }
 
-  async create(input: z.output<typeof materialInputSchema>): Promise<Material> {
-    const row = await this.repository.insert({
+  /** Adds a material; `by` is who did (null: the demo shop on a first start). */
+  async create(input: z.output<typeof materialInputSchema>, by: Actor): Promise<Material> {
+    const values = {
       name: input.name,
       ratioBasis: input.ratio.basis,
       ratioParts: input.ratio.parts,
@@ -80,7 +105,11 @@ export class MaterialsService {
       cautions: input.cautions,
       sdsRef: input.sdsRef ?? null,
       openShelfLifeDays: input.openShelfLifeDays ?? null,
-    });
+    };
+    const row = await this.audit.record(
+      (tx) => this.repository.insert(values, tx),
+      (stored) => this.entry(by, 'material', stored.id, 'material.created', values),
+    );
     return toMaterial(row);
   }
 
@@ -89,7 +118,7 @@ export class MaterialsService {
     return rows.map(({ lot, material }) => toLot(lot, toMaterial(material)));
   }
 
-  async createLot(input: z.output<typeof lotInputSchema>): Promise<Lot> {
+  async createLot(input: z.output<typeof lotInputSchema>, by: Actor): Promise<Lot> {
     const material = await this.get(input.materialId);
     if (input.part >= material.ratio.parts.length) {
       throw new Conflict(`${material.name} has ${material.ratio.parts.length} parts`, [
@@ -102,13 +131,17 @@ export class MaterialsService {
         { path: 'code', message: 'This lot is already registered' },
       ]);
     }
-    const row = await this.repository.insertLot({
+    const values = {
       materialId: input.materialId,
       part: input.part,
       code: input.code,
       expiresOn: input.expiresOn ?? null,
       openedOn: input.openedOn ?? null,
-    });
+    };
+    const row = await this.audit.record(
+      (tx) => this.repository.insertLot(values, tx),
+      (stored) => this.entry(by, 'lot', stored.id, 'lot.created', values),
+    );
     return toLot(row, material);
   }
 

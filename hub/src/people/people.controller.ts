@@ -15,6 +15,7 @@ import type { z } from 'zod';
 import { Roles } from '../auth/access.decorator.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
+import { actorOf } from '../audit/audit.repository.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { PeopleService } from './people.service.js';
 
@@ -34,8 +35,9 @@ export class PeopleController {
   create(
     @Body(new ZodValidationPipe(createPersonRequestSchema))
     body: z.output<typeof createPersonRequestSchema>,
+    @CurrentUser() user: AuthUser,
   ): Promise<Person> {
-    return this.people.create(body);
+    return this.people.create(body, actorOf(user));
   }
 
   @Patch(':id')
@@ -53,8 +55,9 @@ export class PeopleController {
   assignBadge(
     @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(assignBadgeRequestSchema)) body: AssignBadgeRequest,
+    @CurrentUser() user: AuthUser,
   ): Promise<Person> {
-    return this.people.assignBadge(id, body.badge);
+    return this.people.assignBadge(id, body.badge, actorOf(user));
   }
 
   @Put(':id/pin')
@@ -62,8 +65,9 @@ export class PeopleController {
   setPin(
     @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(setPinRequestSchema)) body: SetPinRequest,
+    @CurrentUser() user: AuthUser,
   ): Promise<Person> {
-    return this.people.setPin(id, body.pin);
+    return this.people.setPin(id, body.pin, actorOf(user));
   }
 
   @Put(':id/password')
@@ -71,7 +75,8 @@ export class PeopleController {
   setPassword(
     @Param('id', personId) id: string,
     @Body(new ZodValidationPipe(setPasswordRequestSchema)) body: SetPasswordRequest,
+    @CurrentUser() user: AuthUser,
   ): Promise<Person> {
-    return this.people.setPassword(id, body.password);
+    return this.people.setPassword(id, body.password, actorOf(user));
   }
 }
