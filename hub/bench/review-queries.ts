@@ -29,6 +29,7 @@ import { seedBatches } from '../scripts/batch-seed.js';
 const repoRoot = resolve(import.meta.dirname, '..', '..');
 const count = Number(process.argv[2] ?? 1_000_000);
 const RUNS = 15;
+const mib = (bytes: number) => (bytes / 2 ** 20).toFixed(0);
 
 /**
  * p50 and p95 of the wall time of `run`, and the p50 of the CPU time this process spent in it
@@ -161,22 +162,49 @@ async function main(): Promise<void> {
     // PGlite runs in this process: its memory (the seeded database) is in the RSS already.
     const rssBefore = process.memoryUsage().rss;
     let peakRss = rssBefore;
+    // The JavaScript heap apart from memory outside it (PGlite's WebAssembly memory is there).
+    const before = process.memoryUsage();
+    let peakHeap = before.heapUsed;
+    let peakExternal = before.external;
+    const gc = (globalThis as { gc?: () => void }).gc;
+    gc?.();
+    const liveBefore = process.memoryUsage().heapUsed;
+    let peakLive = liveBefore;
+    let rowsSeen = 0;
+    let lastGc = 0;
     const exportStart = performance.now();
     await pipeline(
       desk.exportCsv({ sort: '-createdAt' }),
       new Writable({
         write(chunk: Buffer, _enc, done) {
           bytes += chunk.length;
-          peakRss = Math.max(peakRss, process.memoryUsage().rss);
+          rowsSeen += (chunk.toString('utf8').match(/\r\n/g) ?? []).length;
+          // With --expose-gc: what the heap holds live every 10,000 rows, garbage collected.
+          if (gc && rowsSeen - lastGc >= 10_000) {
+            lastGc = rowsSeen;
+            gc();
+            peakLive = Math.max(peakLive, process.memoryUsage().heapUsed);
+          }
+          const m = process.memoryUsage();
+          peakRss = Math.max(peakRss, m.rss);
+          peakHeap = Math.max(peakHeap, m.heapUsed);
+          peakExternal = Math.max(peakExternal, m.external);
           done();
         },
       }),
     );
     const s = (performance.now() - exportStart) / 1000;
+    if (gc) {
+      console.log(
+        `live JS heap (after a full GC every 10,000 rows): ${mib(liveBefore)} MiB before, ` +
+          `peak ${mib(peakLive)} MiB`,
+      );
+    }
     console.log(
       `\nCSV export of ${count} batches: ${s.toFixed(1)} s, ${Math.round(count / s)} rows/s, ` +
         `${(bytes / 1e6).toFixed(1)} MB, RSS ${(rssBefore / 2 ** 20).toFixed(0)} MiB before, ` +
-        `peak ${(peakRss / 2 ** 20).toFixed(0)} MiB`,
+        `peak ${(peakRss / 2 ** 20).toFixed(0)} MiB; JS heap ${mib(before.heapUsed)} → peak ` +
+        `${mib(peakHeap)} MiB, external ${mib(before.external)} → peak ${mib(peakExternal)} MiB`,
     );
   } finally {
     await database.close();

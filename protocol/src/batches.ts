@@ -299,7 +299,10 @@ export const accuracyRowSchema = z.object({
   meanDeviationPct: z.number().nullable(),
   /** Sample standard deviation (n − 1); null for a single batch. */
   sdDeviationPct: z.number().nullable(),
-  /** 95th percentile of |deviation|, interpolated between the two nearest batches. */
+  /**
+   * 95th percentile of |deviation|: interpolated between the two nearest batches; over more than
+   * 50,000 batches, from the hub's daily roll-up (a histogram of 0.05-point bins), to about a bin.
+   */
   p95AbsDeviationPct: z.number().nullable(),
   /** Batches where a rescue was taken. */
   rescues: z.number().int(),
