@@ -1,6 +1,7 @@
 import { Fragment } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { SelectField } from '../../../components/form/field';
+import { dayText } from '../../../lib/dates';
 import { deviationPctText } from '../../../lib/percent';
 import { useAccuracy, type AccuracyBucket, type AccuracyGroup } from '../api/get-accuracy';
 import { worstFirst } from '../utils';
@@ -16,13 +17,7 @@ const BUCKETS: { value: AccuracyBucket; label: string }[] = [
 ];
 
 const pct = (v: number | null) => (v === null ? '\u2013' : deviationPctText(v));
-const dayOf = (iso: string) =>
-  new Date(iso).toLocaleDateString(undefined, {
-    timeZone: 'UTC',
-    year: 'numeric',
-    month: 'short',
-    day: 'numeric',
-  });
+const dayOf = (iso: string) => dayText(iso, { utc: true });
 
 /** How close to the ratio each material, bench or operator came, worst first, by day or week. */
 export function AccuracyPage() {
