@@ -160,7 +160,7 @@ export function BatchDetail() {
         <h2 id="trace-title" className="mb-2 text-xl font-semibold">
           Pour trace
         </h2>
-        <PourTraceChart trace={b.trace ?? []} />
+        <PourTraceChart batch={b} />
       </section>
 
       <section aria-labelledby="steps-title">

@@ -6,6 +6,7 @@ import { routes } from '../../../app/router';
 import { getSession, setSession } from '../../../lib/auth';
 import { signInAnswer, stubHub } from '../../../testing/fake-hub';
 import { savedBatch } from '../../../testing/fixtures';
+import { drawnCharts } from '../../../testing/fake-uplot';
 import { renderRoutes } from '../../../testing/render';
 
 // Review shows what the hub sent; the lot warning is the hub's own words.
@@ -353,6 +354,22 @@ describe('batch review', () => {
     expect(
       screen.getByRole('img', { name: /5 readings over 4 s, highest 100\.0 g/ }),
     ).toBeInTheDocument();
+    // The chart (uPlot, loaded on demand) draws each part's target and part B's band of ±1 %.
+    await waitFor(() => expect(drawnCharts.length).toBeGreaterThan(0));
+    const chart = drawnCharts.at(-1)!;
+    expect(chart.options.series?.map((s) => s.label)).toEqual([
+      'Seconds',
+      'Net weight',
+      'Part A target',
+      'Part B target',
+      'Part B high',
+      'Part B low',
+    ]);
+    expect(chart.data[0]).toEqual([0, 1, 2, 3, 4]);
+    // toleranceBand: 14 g ± 1 % (protocol/src/mix/targets.ts) is 13.86–14.14 g.
+    expect(chart.data[4]![0]).toBeCloseTo(14.14, 6);
+    expect(chart.data[5]![0]).toBeCloseTo(13.86, 6);
+    expect(chart.options.bands).toEqual([expect.objectContaining({ series: [4, 5] })]);
     const steps = within(screen.getByRole('region', { name: 'Steps' })).getAllByRole('listitem');
     const stepName = (li: HTMLElement) =>
       li.textContent!.slice(li.querySelector('time')!.textContent!.length);
