@@ -311,6 +311,10 @@ describe('batch review', () => {
     await userEvent.click(within(panel).getByRole('button', { name: 'Sign decision' }));
     const history = await within(panel).findByRole('list', { name: 'Decisions' });
     expect(history).toHaveTextContent('On hold by Ilse Varga: Ratio out of band');
+    // The trail is read again: the decision's entry shows without a reload.
+    await waitFor(() =>
+      expect(requests.filter((r) => r.path.startsWith('/audit'))).toHaveLength(2),
+    );
     expect(requests.filter((r) => r.method === 'POST').at(-1)!.body).toEqual({
       decision: 'hold',
       reason: 'Ratio out of band',
