@@ -22,7 +22,12 @@ export function pourTraceSeries(
   const data: number[][] = [xs, trace.map(([, g]) => g)];
   const series: NonNullable<ChartOptions['series']> = [
     { label: 'Seconds' },
-    { label: 'Net weight', stroke: color('steel'), width: 2, value: (_u, v) => `${v} g` },
+    {
+      label: 'Net weight',
+      stroke: color('steel'),
+      width: 2,
+      value: (_u, v: number | null) => (v === null ? '\u2013' : `${v} g`),
+    },
   ];
   const bands: NonNullable<ChartOptions['bands']> = [];
   batch.parts.forEach((part, i) => {
