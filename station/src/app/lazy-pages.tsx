@@ -14,6 +14,11 @@ export const AccuracyPage = lazy(() =>
     default: m.AccuracyPage,
   })),
 );
+export const BenchesOverview = lazy(() =>
+  import('../features/review/components/benches-overview').then((m) => ({
+    default: m.BenchesOverview,
+  })),
+);
 export const ReviewRoute = lazy(() =>
   import('./routes/review').then((m) => ({ default: m.ReviewRoute })),
 );

@@ -8,6 +8,7 @@ import {
   AccuracyPage,
   BatchDetail,
   BatchesPage,
+  BenchesOverview,
   BenchScaleRoute,
   PeoplePage,
   PlanRoute,
@@ -57,6 +58,14 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['lead', 'admin']}>
             <AccuracyPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'review/benches',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <BenchesOverview />
           </RequireRole>
         ),
       },

@@ -9,3 +9,6 @@ afterEach(() => {
   localStorage.clear();
   vi.unstubAllGlobals();
 });
+
+vi.mock('uplot', () => import('./fake-uplot'));
+vi.mock('uplot/dist/uPlot.min.css', () => ({}));

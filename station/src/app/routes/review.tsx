@@ -23,6 +23,11 @@ export function ReviewRoute() {
         </Link>
       </p>
       <p className="mt-4 text-lg">
+        <Link className="underline" to="/review/benches">
+          Every bench, live
+        </Link>
+      </p>
+      <p className="mt-4 text-lg">
         <Link className="underline" to="/review/accuracy">
           Accuracy over time
         </Link>

@@ -1,15 +1,3 @@
-/** A local date and time for the review tables, to the minute. */
-export function shownTime(iso: string | null | undefined): string {
-  if (!iso) return '\u2013';
-  return new Date(iso).toLocaleString(undefined, {
-    year: 'numeric',
-    month: 'short',
-    day: 'numeric',
-    hour: '2-digit',
-    minute: '2-digit',
-  });
-}
-
 /** What went into the cup, all parts together; null before anything was poured. */
 export function weighedTotalG(parts: readonly { actualG: number | null }[]): number | null {
   const poured = parts.filter((p) => p.actualG !== null);
@@ -23,23 +11,40 @@ export const DECISION_SHOWN = {
   scrap: 'Scrapped',
 } as const;
 
+/** What "worst" means on the accuracy page. */
+export type WorstBy = 'p95' | 'goShare';
+
+interface AccuracyLike {
+  groupId: string;
+  bucketStart: string;
+  count: number;
+  goShare: number;
+  p95AbsDeviationPct: number | null;
+}
+
 /**
- * Groups worst first: by the largest 95th percentile of |deviation| any of their days or weeks
- * reached, each group's rows newest first.
+ * Groups worst first, each group's rows newest first. `p95`: by the largest 95th percentile of
+ * |deviation| any of their days or weeks reached. `goShare`: by the lowest share of GO over all
+ * their batches (each day or week weighted by its batch count).
  */
-export function worstFirst<
-  R extends { groupId: string; bucketStart: string; p95AbsDeviationPct: number | null },
->(rows: readonly R[]): { groupId: string; worstP95: number | null; rows: R[] }[] {
+export function worstFirst<R extends AccuracyLike>(
+  rows: readonly R[],
+  by: WorstBy = 'p95',
+): { groupId: string; worstP95: number | null; goShare: number; rows: R[] }[] {
   const groups = new Map<string, R[]>();
   for (const r of rows) groups.set(r.groupId, [...(groups.get(r.groupId) ?? []), r]);
   return [...groups]
     .map(([groupId, rs]) => {
       const p95s = rs.map((r) => r.p95AbsDeviationPct).filter((v): v is number => v !== null);
+      const count = rs.reduce((n, r) => n + r.count, 0);
       return {
         groupId,
         worstP95: p95s.length ? Math.max(...p95s) : null,
+        goShare: count ? rs.reduce((n, r) => n + r.goShare * r.count, 0) / count : 1,
         rows: [...rs].sort((a, b) => b.bucketStart.localeCompare(a.bucketStart)),
       };
     })
-    .sort((a, b) => (b.worstP95 ?? -1) - (a.worstP95 ?? -1));
+    .sort((a, b) =>
+      by === 'goShare' ? a.goShare - b.goShare : (b.worstP95 ?? -1) - (a.worstP95 ?? -1),
+    );
 }

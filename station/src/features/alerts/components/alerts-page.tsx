@@ -1,12 +1,13 @@
 import { ALERT_EVENT_LABELS, ALERT_EVENTS, type AlertEvent } from '@tareline/protocol';
 import { useState, type FormEvent } from 'react';
 import { hasRole, useSession } from '../../../lib/auth';
+import { dateTimeText } from '../../../lib/dates';
 import { useCaughtMail } from '../api/mail-catcher';
 import { useMyAlerts, useSetMyAlerts } from '../api/my-alerts';
 import { useOutbox } from '../api/outbox';
 
 const primary = 'min-h-11 rounded-lg bg-steel px-4 font-semibold text-paper';
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString() : '—');
+const when = dateTimeText;
 
 /** My alert mails for everyone; the outbox and the local mail catcher for admins. */
 export function AlertsPage() {

@@ -13,14 +13,17 @@ export function createDisposition(batchId: number, body: CreateDisposition): Pro
   );
 }
 
-/** Signs a decision on a batch; the batch and the lists show it at once. */
+/** Signs a decision on a batch; the batch, the lists and its audit trail show it at once. */
 export function useCreateDisposition(batchId: number) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (body: CreateDisposition) => createDisposition(batchId, body),
     onSuccess: async (batch) => {
       client.setQueryData(batchQueryKey(batchId), batch);
-      await client.invalidateQueries({ queryKey: ['batches', 'list'] });
+      await Promise.all([
+        client.invalidateQueries({ queryKey: ['batches', 'list'] }),
+        client.invalidateQueries({ queryKey: ['audit', 'batch', batchId] }),
+      ]);
     },
   });
 }

@@ -7,7 +7,7 @@ import {
   type BatchPage,
   type BatchSort,
 } from '@tareline/protocol';
-import { useInfiniteQuery } from '@tanstack/react-query';
+import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 
 /** The list's filters as the address holds them: every value a string, absent when not set. */
@@ -76,12 +76,12 @@ export function getBatchPage(filter: BatchFilter, cursor: string | null): Promis
   return apiRequest(`/batches?${params.toString()}`, batchPageSchema);
 }
 
-/** The batches a filter finds, a page at a time ("more" loads the next). */
-export function useBatchPages(filter: BatchFilter) {
-  return useInfiniteQuery({
-    queryKey: batchesQueryKey(filter),
-    queryFn: ({ pageParam }) => getBatchPage(filter, pageParam),
-    initialPageParam: null as string | null,
-    getNextPageParam: (last) => last.nextCursor,
+/** One page of the batches a filter finds: the first page with no cursor, later ones after it. */
+export function useBatchPage(filter: BatchFilter, cursor: string | null) {
+  return useQuery({
+    queryKey: [...batchesQueryKey(filter), cursor] as const,
+    queryFn: () => getBatchPage(filter, cursor),
+    // The page on screen stays while the next one loads: the table does not jump to empty.
+    placeholderData: keepPreviousData,
   });
 }

@@ -1,6 +1,6 @@
 import { hasRole, useSession } from '../../../lib/auth';
 import { useBatchAudit } from '../api/get-audit';
-import { shownTime } from '../utils';
+import { dateTimeText } from '../../../lib/dates';
 
 /** What the audit trail holds about a batch: for leads and admins, who may read the trail. */
 export function BatchAudit({ batchId }: { batchId: number }) {
@@ -20,7 +20,7 @@ export function BatchAudit({ batchId }: { batchId: number }) {
           {audit.data.items.map((e) => (
             <li key={e.id}>
               <time dateTime={e.at} className="mr-3 text-muted">
-                {shownTime(e.at)}
+                {dateTimeText(e.at)}
               </time>
               {e.action} by {e.actor?.name ?? 'the hub'}
               <span className="ml-2 font-mono text-base text-muted" title={e.hash}>

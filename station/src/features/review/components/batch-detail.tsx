@@ -3,7 +3,7 @@ import { useBatch } from '../api/get-batch';
 import { useBenches } from '../../../lib/benches';
 import { decimalsForReadability } from '../../../lib/grams';
 import { deviationPctText } from '../../../lib/percent';
-import { shownTime } from '../utils';
+import { clockText, dateTimeText } from '../../../lib/dates';
 import { BatchOutcome } from './batch-outcome';
 import { BatchAudit } from './batch-audit';
 import { DispositionPanel } from './disposition-panel';
@@ -83,9 +83,7 @@ export function BatchDetail() {
           <>
             <dt className="text-muted">Also handled by</dt>
             <dd>
-              {b.handledBy
-                .map((h) => `${h.name} (${h.role}, from ${new Date(h.at).toLocaleTimeString()})`)
-                .join('; ')}
+              {b.handledBy.map((h) => `${h.name} (${h.role}, from ${clockText(h.at)})`).join('; ')}
             </dd>
           </>
         )}
@@ -101,7 +99,7 @@ export function BatchDetail() {
         <dt className="text-muted">Scale readability</dt>
         <dd>{b.readabilityG} g</dd>
         <dt className="text-muted">Saved</dt>
-        <dd>{shownTime(b.savedAt)}</dd>
+        <dd>{dateTimeText(b.savedAt)}</dd>
         {b.abandonReason && (
           <>
             <dt className="text-muted">Why abandoned</dt>
@@ -162,7 +160,7 @@ export function BatchDetail() {
         <h2 id="trace-title" className="mb-2 text-xl font-semibold">
           Pour trace
         </h2>
-        <PourTraceChart trace={b.trace ?? []} />
+        <PourTraceChart batch={b} />
       </section>
 
       <section aria-labelledby="steps-title">
@@ -173,7 +171,7 @@ export function BatchDetail() {
           {steps.map(([step, at]) => (
             <li key={step}>
               <time dateTime={at} className="mr-3 text-muted">
-                {new Date(at).toLocaleTimeString()}
+                {clockText(at)}
               </time>
               {STEP_SHOWN[baseOf(step)] ?? step}
               {/\.\d+$/.test(step) && ' again'}

@@ -6,6 +6,7 @@ import { routes } from '../../../app/router';
 import { getSession, setSession } from '../../../lib/auth';
 import { signInAnswer, stubHub } from '../../../testing/fake-hub';
 import { savedBatch } from '../../../testing/fixtures';
+import { drawnCharts } from '../../../testing/fake-uplot';
 import { renderRoutes } from '../../../testing/render';
 
 // Review shows what the hub sent; the lot warning is the hub's own words.
@@ -132,10 +133,20 @@ describe('batch review', () => {
     expect(screen.getByLabelText('Verdict')).toHaveValue('NO-GO');
     expect(screen.getByLabelText('Lot code')).toHaveValue('SC14H-2511');
 
-    await userEvent.click(screen.getByRole('button', { name: 'More batches' }));
+    // A link reproduces the view: the filters come from the address.
+    expect(screen.getByText('Page 1')).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Previous page' })).toBeDisabled();
+
+    await userEvent.click(screen.getByRole('button', { name: 'Next page' }));
     expect(await screen.findByRole('link', { name: '7' })).toBeInTheDocument();
-    expect(screen.getByRole('link', { name: '11' })).toBeInTheDocument();
-    expect(screen.queryByRole('button', { name: 'More batches' })).toBeNull();
+    expect(screen.queryByRole('link', { name: '11' })).toBeNull();
+    expect(screen.getByText('Page 2')).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Next page' })).toBeDisabled();
+
+    await userEvent.click(screen.getByRole('button', { name: 'Previous page' }));
+    expect(await screen.findByRole('link', { name: '11' })).toBeInTheDocument();
+    expect(screen.queryByRole('link', { name: '7' })).toBeNull();
+    expect(screen.getByText('Page 1')).toBeInTheDocument();
 
     await userEvent.click(screen.getByRole('button', { name: 'Off ratio' }));
     await waitFor(() =>
@@ -157,6 +168,59 @@ describe('batch review', () => {
     );
   });
 
+  it('shows NO-GO batches nobody decided on in the "to decide" view, and the export follows', async () => {
+    setSession(signInAnswer({ name: 'Ilse Varga', role: 'lead' }));
+    stubHub({
+      ...OPTIONS,
+      'GET /batches?limit=50': () => [200, page([batch(), batch({ id: 11, verdict: 'NO-GO' })])],
+      'GET /batches?verdict=NO-GO&state=saved&disposition=none&limit=50': () => [
+        200,
+        page([batch({ id: 11, verdict: 'NO-GO' })]),
+      ],
+    });
+    const { router } = renderRoutes(routes, '/review/batches');
+    expect(await screen.findByRole('link', { name: '12' })).toBeInTheDocument();
+    await userEvent.click(screen.getByRole('link', { name: 'To decide' }));
+    await waitFor(() => expect(screen.queryByRole('link', { name: '12' })).toBeNull());
+    expect(screen.getByRole('link', { name: '11' })).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'To decide' })).toHaveAttribute('aria-current', 'page');
+    expect(router.state.location.search).toBe('?verdict=NO-GO&state=saved&disposition=none');
+    expect(screen.getByLabelText('Decision')).toHaveValue('none');
+    expect(screen.getByRole('link', { name: 'Export CSV' })).toHaveAttribute(
+      'href',
+      '/api/batches/export.csv?verdict=NO-GO&state=saved&disposition=none',
+    );
+  });
+
+  it('goes back to the first page when the order changes', async () => {
+    setSession(signInAnswer({ name: 'Ilse Varga', role: 'lead' }));
+    stubHub({
+      ...OPTIONS,
+      'GET /batches?limit=50': () => [200, { ...page([batch({ id: 12 })]), nextCursor: 'c1' }],
+      'GET /batches?cursor=c1&limit=50': () => [200, page([batch({ id: 5 })])],
+      'GET /batches?sort=createdAt&limit=50': () => [
+        200,
+        { ...page([batch({ id: 1 })]), nextCursor: 'c9' },
+      ],
+    });
+    renderRoutes(routes, '/review/batches');
+    await screen.findByRole('link', { name: '12' });
+    await userEvent.click(screen.getByRole('button', { name: 'Next page' }));
+    expect(await screen.findByRole('link', { name: '5' })).toBeInTheDocument();
+    // Newest first is the default; a click on "Started" turns it to oldest first.
+    expect(screen.getByRole('columnheader', { name: /Started/ })).toHaveAttribute(
+      'aria-sort',
+      'descending',
+    );
+    await userEvent.click(screen.getByRole('button', { name: /Started/ }));
+    expect(await screen.findByRole('link', { name: '1' })).toBeInTheDocument();
+    expect(screen.getByText('Page 1')).toBeInTheDocument();
+    expect(screen.getByRole('columnheader', { name: /Started/ })).toHaveAttribute(
+      'aria-sort',
+      'ascending',
+    );
+  });
+
   it('exports the CSV of the filter shown, with the session token', async () => {
     setSession(signInAnswer({ name: 'Ilse Varga', role: 'lead' }));
     const requests = stubHub({
@@ -168,7 +232,9 @@ describe('batch review', () => {
     vi.stubGlobal('URL', Object.assign(URL, { createObjectURL, revokeObjectURL: vi.fn() }));
     renderRoutes(routes, '/review/batches?verdict=NO-GO');
     await screen.findByRole('link', { name: '11' });
-    await userEvent.click(screen.getByRole('button', { name: 'Export CSV' }));
+    const link = screen.getByRole('link', { name: 'Export CSV' });
+    expect(link).toHaveAttribute('href', '/api/batches/export.csv?verdict=NO-GO');
+    await userEvent.click(link);
     await waitFor(() => expect(createObjectURL).toHaveBeenCalledTimes(1));
     const exported = requests.find((r) => r.path.startsWith('/batches/export.csv'))!;
     expect(exported.path).toBe('/batches/export.csv?verdict=NO-GO');
@@ -245,6 +311,10 @@ describe('batch review', () => {
     await userEvent.click(within(panel).getByRole('button', { name: 'Sign decision' }));
     const history = await within(panel).findByRole('list', { name: 'Decisions' });
     expect(history).toHaveTextContent('On hold by Ilse Varga: Ratio out of band');
+    // The trail is read again: the decision's entry shows without a reload.
+    await waitFor(() =>
+      expect(requests.filter((r) => r.path.startsWith('/audit'))).toHaveLength(2),
+    );
     expect(requests.filter((r) => r.method === 'POST').at(-1)!.body).toEqual({
       decision: 'hold',
       reason: 'Ratio out of band',
@@ -288,6 +358,22 @@ describe('batch review', () => {
     expect(
       screen.getByRole('img', { name: /5 readings over 4 s, highest 100\.0 g/ }),
     ).toBeInTheDocument();
+    // The chart (uPlot, loaded on demand) draws each part's target and part B's band of ±1 %.
+    await waitFor(() => expect(drawnCharts.length).toBeGreaterThan(0));
+    const chart = drawnCharts.at(-1)!;
+    expect(chart.options.series?.map((s) => s.label)).toEqual([
+      'Seconds',
+      'Net weight',
+      'Part A target',
+      'Part B target',
+      'Part B high',
+      'Part B low',
+    ]);
+    expect(chart.data[0]).toEqual([0, 1, 2, 3, 4]);
+    // toleranceBand: 14 g ± 1 % (protocol/src/mix/targets.ts) is 13.86–14.14 g.
+    expect(chart.data[4]![0]).toBeCloseTo(14.14, 6);
+    expect(chart.data[5]![0]).toBeCloseTo(13.86, 6);
+    expect(chart.options.bands).toEqual([expect.objectContaining({ series: [4, 5] })]);
     const steps = within(screen.getByRole('region', { name: 'Steps' })).getAllByRole('listitem');
     const stepName = (li: HTMLElement) =>
       li.textContent!.slice(li.querySelector('time')!.textContent!.length);

@@ -9,7 +9,8 @@ import { useForm } from 'react-hook-form';
 import { SelectField, TextField } from '../../../components/form/field';
 import { hasRole, useSession } from '../../../lib/auth';
 import { useCreateDisposition } from '../api/create-disposition';
-import { DECISION_SHOWN, shownTime } from '../utils';
+import { dateTimeText } from '../../../lib/dates';
+import { DECISION_SHOWN } from '../utils';
 
 /**
  * What was decided about a batch, oldest first, and (for leads, on a saved batch) the form to
@@ -33,7 +34,7 @@ export function DispositionPanel({ batch }: { batch: Batch }) {
           {history.map((d) => (
             <li key={`${d.at}-${d.decision}`}>
               <time dateTime={d.at} className="mr-3 text-muted">
-                {shownTime(d.at)}
+                {dateTimeText(d.at)}
               </time>
               <strong>{DECISION_SHOWN[d.decision]}</strong> by {d.by.name}
               {d.reason && <>: {d.reason}</>}

@@ -1,49 +1,92 @@
-const WIDTH = 720;
-const HEIGHT = 240;
-const PAD = { left: 56, right: 12, top: 12, bottom: 36 };
+import { toleranceBand, type Batch } from '@tareline/protocol';
+import { useMemo } from 'react';
+import { Chart } from '../../../components/chart/lazy-chart';
+import { themeColor } from '../../../components/chart/theme-color';
+import type { ChartOptions } from '../../../components/chart/uplot-chart';
+
+type Colors = (name: string, alpha?: number) => string;
+type TraceBatch = Pick<Batch, 'trace' | 'parts' | 'tolerancePct'>;
 
 /**
- * The pour trace as a line: net grams over seconds since the batch started. Each part's pour
- * starts near zero again (the hub tares between parts), so the saw-tooth shows each pour's
- * shape: a steady pour rises smoothly, dribbles near the target show as steps.
+ * The chart's series: the net weight over seconds, each part's target as a dashed line and,
+ * for the parts after the first, the band the hub judged the pour against (target ± the
+ * tolerance, `toleranceBand` of the protocol). Part A has no band: it sets the scale of the rest.
  */
-export function PourTraceChart({ trace }: { trace: [number, number][] }) {
+export function pourTraceSeries(
+  batch: TraceBatch,
+  color: Colors,
+): { options: ChartOptions; data: number[][] } {
+  const trace = batch.trace ?? [];
+  const xs = trace.map(([ms]) => ms / 1000);
+  const flat = (g: number) => xs.map(() => g);
+  const data: number[][] = [xs, trace.map(([, g]) => g)];
+  const series: NonNullable<ChartOptions['series']> = [
+    { label: 'Seconds' },
+    {
+      label: 'Net weight',
+      stroke: color('steel'),
+      width: 2,
+      value: (_u, v: number | null) => (v === null ? '\u2013' : `${v} g`),
+    },
+  ];
+  const bands: NonNullable<ChartOptions['bands']> = [];
+  batch.parts.forEach((part, i) => {
+    if (part.targetG <= 0) return;
+    series.push({
+      label: `${part.label} target`,
+      stroke: color('go'),
+      dash: [6, 4],
+      width: 1,
+      points: { show: false },
+    });
+    data.push(flat(part.targetG));
+    if (i === 0) return;
+    const band = toleranceBand(part.targetG, batch.tolerancePct);
+    const high = data.length;
+    series.push(
+      { label: `${part.label} high`, stroke: color('go', 0.5), points: { show: false } },
+      { label: `${part.label} low`, stroke: color('go', 0.5), points: { show: false } },
+    );
+    data.push(flat(band.highG), flat(band.lowG));
+    bands.push({ series: [high, high + 1], fill: color('go', 0.15) });
+  });
+  return {
+    data,
+    options: {
+      scales: { x: { time: false } },
+      axes: [
+        { label: 's', stroke: color('muted') },
+        { label: 'g', stroke: color('muted') },
+      ],
+      series,
+      bands,
+      legend: { show: true },
+      cursor: { drag: { x: true, y: false } },
+    },
+  };
+}
+
+/**
+ * The pour trace: net grams over seconds since the batch started. Each part's pour starts near
+ * zero again (the hub tares between parts), so the saw-tooth shows each pour's shape against its
+ * target: a steady pour rises smoothly, dribbles near the target show as steps.
+ */
+export function PourTraceChart({ batch }: { batch: TraceBatch }) {
+  const trace = batch.trace ?? [];
+  const chart = useMemo(() => pourTraceSeries(batch, themeColor), [batch]);
   if (trace.length < 2) {
     return <p className="text-muted">No pour trace was recorded for this batch.</p>;
   }
   const endS = Math.max(trace.at(-1)![0] / 1000, 1);
-  const grams = trace.map(([, g]) => g);
-  const lowG = Math.min(0, ...grams);
-  const highG = Math.max(1, ...grams);
-  const x = (ms: number) => PAD.left + (ms / 1000 / endS) * (WIDTH - PAD.left - PAD.right);
-  const y = (g: number) =>
-    PAD.top + (1 - (g - lowG) / (highG - lowG)) * (HEIGHT - PAD.top - PAD.bottom);
-  const points = trace.map(([ms, g]) => `${x(ms).toFixed(1)},${y(g).toFixed(1)}`).join(' ');
+  const highG = Math.max(1, ...trace.map(([, g]) => g));
   const label = `Pour trace: ${trace.length} readings over ${endS.toFixed(0)} s, highest ${highG.toFixed(1)} g`;
   return (
-    <figure className="rounded-xl bg-panel p-3">
-      <svg viewBox={`0 0 ${WIDTH} ${HEIGHT}`} role="img" aria-label={label} className="w-full">
-        <line x1={PAD.left} x2={WIDTH - PAD.right} y1={y(0)} y2={y(0)} className="stroke-line" />
-        <line
-          x1={PAD.left}
-          x2={PAD.left}
-          y1={PAD.top}
-          y2={HEIGHT - PAD.bottom}
-          className="stroke-line"
-        />
-        <text x={PAD.left - 6} y={y(highG) + 4} textAnchor="end" className="fill-muted text-xs">
-          {highG.toFixed(0)} g
-        </text>
-        <text x={PAD.left - 6} y={y(0) + 4} textAnchor="end" className="fill-muted text-xs">
-          0 g
-        </text>
-        <text x={WIDTH - PAD.right} y={HEIGHT - 10} textAnchor="end" className="fill-muted text-xs">
-          {endS.toFixed(0)} s
-        </text>
-        <polyline points={points} fill="none" strokeWidth={2} className="stroke-steel" />
-      </svg>
+    <figure role="img" aria-label={label} className="rounded-xl bg-panel p-3">
+      <Chart options={chart.options} data={chart.data} height={280} />
       <figcaption className="mt-1 text-sm text-muted">
-        Net weight on the scale through the batch; the hub tares before each part.
+        Net weight on the scale through the batch; the hub tares before each part. Dashed: each
+        part&apos;s target; shaded: the band of ±{batch.tolerancePct} % each part after the first
+        had to end in.
       </figcaption>
     </figure>
   );
