@@ -44,6 +44,8 @@ function toLot(row: LotRow, material: Pick<Material, 'openShelfLifeDays'>): Lot 
     code: row.code,
     ...(row.expiresOn !== null && { expiresOn: row.expiresOn }),
     ...(row.openedOn !== null && { openedOn: row.openedOn }),
+    receivedG: 0,
+    onHandG: 0,
   };
   return { ...lot, warnings: lotWarnings(lot, today(), material.openShelfLifeDays) };
 }
