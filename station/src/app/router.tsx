@@ -9,6 +9,7 @@ import {
   BatchDetail,
   BatchesPage,
   BenchScaleRoute,
+  MaterialsPage,
   PeoplePage,
   PlanRoute,
   ReviewRoute,
@@ -65,6 +66,14 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['admin']}>
             <PeoplePage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'materials',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <MaterialsPage />
           </RequireRole>
         ),
       },
