@@ -192,6 +192,8 @@ function AdjustLot({ lot, onDone }: { lot: Lot; onDone: () => void }) {
     try {
       await adjust.mutateAsync({ id: lot.id, ...values });
       form.reset({ reason: '' });
+      // An uncontrolled box keeps its text through a reset: empty it, so a second click adds nothing.
+      form.setValue('deltaG', '' as unknown as number);
     } catch (error) {
       showServerError(form, error);
     }
