@@ -49,7 +49,7 @@ describe('the materials page in Chromium', () => {
     await form.getByRole('button', { name: 'Save material' }).click();
     const row = page.getByRole('row', { name: /Hollin pattern urethane PU-2/ });
     await row.waitFor(LONG);
-    expect(await form.count()).toBe(0);
+    await form.waitFor({ state: 'detached' });
 
     await page.getByRole('button', { name: 'Lots of Hollin pattern urethane PU-2' }).click();
     await page.getByRole('button', { name: 'Receive a lot' }).click();
