@@ -16,6 +16,7 @@ import { BenchesModule } from './benches/benches.module.js';
 import { BatchesModule } from './batches/batches.module.js';
 import { LiveModule } from './live/live.module.js';
 import { ScalesModule } from './scales/scales.module.js';
+import { StockModule } from './stock/stock.module.js';
 
 @Module({})
 export class AppModule {
@@ -38,6 +39,7 @@ export class AppModule {
         BatchesModule,
         BackupModule,
         AlertsModule,
+        StockModule,
         // The built station, with client routes falling back to index.html.
         ServeStaticModule.forRoot({
           rootPath: config.paths.station,

@@ -196,9 +196,19 @@ describe('a data folder filled by the batch seed script', { timeout: 240_000 }, 
     expect(material.status, JSON.stringify(material.body)).toBe(201);
     const lot = await call<Lot>(hub, 'POST', '/api/lots', {
       token: lead,
-      body: { materialId: material.body.id, part: 1, code: 'HT-B-0042' },
+      body: { materialId: material.body.id, part: 1, code: 'HT-B-0042', receivedG: 4000 },
     });
     expect(lot.status, JSON.stringify(lot.body)).toBe(201);
+    const changed = await call(hub, 'PATCH', `/api/materials/${material.body.id}`, {
+      token: lead,
+      body: { tolerancePct: 0.5 },
+    });
+    expect(changed.status, JSON.stringify(changed.body)).toBe(200);
+    const spilled = await call(hub, 'POST', `/api/lots/${lot.body.id}/adjustments`, {
+      token: lead,
+      body: { deltaG: -150, reason: 'Spilled while opening' },
+    });
+    expect(spilled.status, JSON.stringify(spilled.body)).toBe(201);
     const person = await call<Person>(hub, 'POST', '/api/people', {
       token: admin,
       body: { name: 'Wren Halloway', role: 'operator', badge: 'HR-1077' },
@@ -222,17 +232,27 @@ describe('a data folder filled by the batch seed script', { timeout: 240_000 }, 
         })
       ).body.items;
     const leadName = 'Ilse Varga';
-    const [m] = await trail('material', material.body.id);
+    const [m, m2] = await trail('material', material.body.id);
+    expect(m2).toMatchObject({
+      action: 'material.changed',
+      actor: { name: leadName },
+      data: { tolerancePct: 0.5 },
+    });
     expect(m).toMatchObject({
       action: 'material.created',
       actor: { name: leadName },
       data: { name: 'Hollin test urethane 80A', ratioParts: [100, 20], tolerancePct: 1 },
     });
-    const [l] = await trail('lot', lot.body.id);
+    const [l, l2] = await trail('lot', lot.body.id);
+    expect(l2).toMatchObject({
+      action: 'lot.adjusted',
+      actor: { name: leadName },
+      data: { deltaG: -150, reason: 'Spilled while opening' },
+    });
     expect(l).toMatchObject({
       action: 'lot.created',
       actor: { name: leadName },
-      data: { materialId: material.body.id, part: 1, code: 'HT-B-0042' },
+      data: { materialId: material.body.id, part: 1, code: 'HT-B-0042', receivedMg: 4_000_000 },
     });
     const p = await trail('person', person.body.id);
     expect(p.map((e) => [e.action, e.actor?.name])).toEqual([

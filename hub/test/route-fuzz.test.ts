@@ -1,4 +1,4 @@
-import { type Batch, type Material, type Person } from '@tareline/protocol';
+import { type Batch, type Lot, type Material, type Person } from '@tareline/protocol';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PeopleRepository } from '../src/people/people.repository.js';
@@ -278,6 +278,7 @@ function query(keys: readonly string[]): fc.Arbitrary<string> {
 
 interface Fixtures {
   materialId: string;
+  lotId: string;
   personId: string;
   batchId: string;
 }
@@ -308,7 +309,12 @@ function validBodies(f: Fixtures): Record<string, unknown> {
       cautions: ['Wear gloves'],
       sdsRef: 'SDS-1',
     },
-    'POST /api/lots': { materialId: f.materialId, part: 0, code: 'FZ-LOT-1' },
+    'PATCH /api/materials/:id': { storageNote: 'Keep dry', costPerKg: [10, 12], lowStockG: null },
+    'POST /api/materials/import': {
+      csv: 'name,ratio_basis,ratio_a,ratio_b,specific_gravity\r\nFuzz import,weight,100,14,1.2\r\n',
+    },
+    'POST /api/lots': { materialId: f.materialId, part: 0, code: 'FZ-LOT-1', receivedG: 1000 },
+    'POST /api/lots/:id/adjustments': { deltaG: 1.5, reason: 'Count' },
     'POST /api/batches': {
       benchId: 'bench-1',
       materialId: f.materialId,
@@ -326,6 +332,7 @@ function validBodies(f: Fixtures): Record<string, unknown> {
 
 const QUERY_KEYS: Record<string, readonly string[]> = {
   'GET /api/lots': ['materialId'],
+  'GET /api/materials': ['includeRetired'],
   'GET /api/batches': [
     'benchId',
     'state',
@@ -349,6 +356,7 @@ const QUERY_KEYS: Record<string, readonly string[]> = {
 function realIdFor(pattern: string, f: Fixtures): string {
   if (pattern.startsWith('/api/people/')) return f.personId;
   if (pattern.startsWith('/api/materials/')) return f.materialId;
+  if (pattern.startsWith('/api/lots/')) return f.lotId;
   if (pattern.startsWith('/api/batches/')) return f.batchId;
   // A bench id that names nothing, so a valid script cannot drive a real bench's simulator.
   if (pattern.startsWith('/api/benches/')) return 'bench-fuzz';
@@ -468,8 +476,12 @@ describe('route fuzz: no input makes the hub answer 5xx', () => {
       body: { benchId: 'bench-2', materialId: material.id, totalMassG: 100 },
     });
     expect(batch.status).toBe(201);
+    const lots = await call<Lot[]>(hub, 'GET', `/api/lots?materialId=${material.id}`, {
+      token: adminToken,
+    });
     fixtures = {
       materialId: material.id,
+      lotId: lots.body[0]!.id,
       personId: target.body.id,
       batchId: String(batch.body.id),
     };

@@ -6,6 +6,7 @@ export * from './live.js';
 export * from './scale/index.js';
 export * from './mix/index.js';
 export * from './materials.js';
+export * from './materials-desk.js';
 export * from './batches.js';
 export * from './auth.js';
 export * from './scale-link.js';

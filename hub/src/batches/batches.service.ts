@@ -1,5 +1,5 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
-import type { Batch, CreateBatch } from '@tareline/protocol';
+import { overdrawWarning, splitTotalG, type Batch, type CreateBatch } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
@@ -106,6 +106,8 @@ export class BatchesService {
       ]);
     }
     const lots = [];
+    // What each part will take, so a lot that holds less warns before anything is weighed.
+    const plannedG = splitTotalG(input.totalMassG, material.weightRatio);
     for (const scanned of input.lots) {
       if (scanned.part >= material.weightRatio.length) {
         throw new Conflict(`${material.name} has no part ${'ABC'[scanned.part]}`, [
@@ -118,7 +120,10 @@ export class BatchesService {
         code: scanned.code,
         lotId: lot?.id ?? null,
         warnings: lot
-          ? lot.warnings
+          ? [
+              ...lot.warnings,
+              ...[overdrawWarning(lot, plannedG[scanned.part]!)].filter((w) => w !== undefined),
+            ]
           : [
               {
                 code: 'LOT_UNKNOWN' as const,

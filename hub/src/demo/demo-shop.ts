@@ -70,6 +70,8 @@ export const DEMO_MATERIALS = [
     ],
     sdsRef: 'SDS binder, tab 3 (SC-14 resin and hardener)',
     openShelfLifeDays: 180,
+    costPerKg: [38, 52],
+    lowStockG: [1000, 150],
   },
   {
     name: 'Clear laminating epoxy LR-27',
@@ -82,6 +84,8 @@ export const DEMO_MATERIALS = [
     agitateMin: 0,
     cautions: EPOXY_CAUTIONS,
     sdsRef: 'SDS binder, tab 4 (LR-27)',
+    costPerKg: [29, 41],
+    lowStockG: [1000, 270],
   },
   {
     name: 'Amber casting urethane CU-11',
@@ -94,6 +98,8 @@ export const DEMO_MATERIALS = [
     agitateMin: 0,
     cautions: URETHANE_CAUTIONS,
     sdsRef: 'SDS binder, tab 7 (CU-11)',
+    costPerKg: [21, 19],
+    lowStockG: [800, 800],
   },
   {
     name: 'Shore 60A urethane rubber UR-60 with colour',
@@ -106,15 +112,21 @@ export const DEMO_MATERIALS = [
     agitateMin: 1,
     cautions: URETHANE_CAUTIONS,
     sdsRef: 'SDS binder, tab 8 (UR-60)',
+    costPerKg: [24, 24, 90],
+    lowStockG: [1000, 800, 50],
   },
 ] as const;
 
-/** Lots on the shelf, one expired and one open too long, so the warnings can be seen. */
+/**
+ * Lots on the shelf, one expired and one open too long, so the warnings can be seen; the old
+ * hardener is also below its material's low-stock threshold.
+ */
 export const DEMO_LOTS = [
   {
     material: 'Grey surface-coat epoxy SC-14',
     part: 0,
     code: 'SC14R-2609',
+    receivedG: 4000,
     expiresOn: '2027-09-30',
     openedOn: '2026-11-02',
   },
@@ -122,6 +134,7 @@ export const DEMO_LOTS = [
     material: 'Grey surface-coat epoxy SC-14',
     part: 1,
     code: 'SC14H-2608',
+    receivedG: 560,
     expiresOn: '2027-08-31',
     openedOn: '2026-11-02',
   },
@@ -129,6 +142,7 @@ export const DEMO_LOTS = [
     material: 'Grey surface-coat epoxy SC-14',
     part: 1,
     code: 'SC14H-2511',
+    receivedG: 120,
     expiresOn: '2026-11-30',
     openedOn: '2026-03-10',
   },
@@ -136,18 +150,21 @@ export const DEMO_LOTS = [
     material: 'Clear laminating epoxy LR-27',
     part: 0,
     code: 'LR27R-2607',
+    receivedG: 4500,
     expiresOn: '2027-07-31',
   },
   {
     material: 'Clear laminating epoxy LR-27',
     part: 1,
     code: 'LR27H-2607',
+    receivedG: 1215,
     expiresOn: '2027-07-31',
   },
   {
     material: 'Amber casting urethane CU-11',
     part: 0,
     code: 'CU11A-2610',
+    receivedG: 3600,
     expiresOn: '2027-04-30',
     openedOn: '2026-10-20',
   },
@@ -155,6 +172,7 @@ export const DEMO_LOTS = [
     material: 'Amber casting urethane CU-11',
     part: 1,
     code: 'CU11B-2610',
+    receivedG: 3200,
     expiresOn: '2027-04-30',
     openedOn: '2026-10-20',
   },

@@ -8,6 +8,7 @@ import { MaterialsService } from './materials.service.js';
   imports: [AuditModule],
   controllers: [MaterialsController],
   providers: [MaterialsRepository, MaterialsService],
-  exports: [MaterialsService],
+  // The repository for the stock ledger, which writes in a batch's transaction.
+  exports: [MaterialsService, MaterialsRepository],
 })
 export class MaterialsModule {}

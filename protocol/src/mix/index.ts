@@ -10,3 +10,4 @@ export * from './scale-fitness.js';
 export * from './marks.js';
 export * from './pumps.js';
 export * from './plan.js';
+export * from './ratio-agreement.js';

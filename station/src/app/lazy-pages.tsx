@@ -39,3 +39,8 @@ export const VolumeEstimator = lazy(() =>
 export const AlertsPage = lazy(() =>
   import('../features/alerts/components/alerts-page').then((m) => ({ default: m.AlertsPage })),
 );
+export const MaterialsPage = lazy(() =>
+  import('../features/materials/components/materials-page').then((m) => ({
+    default: m.MaterialsPage,
+  })),
+);

@@ -10,6 +10,7 @@ import {
   BatchesPage,
   BenchesOverview,
   BenchScaleRoute,
+  MaterialsPage,
   PeoplePage,
   PlanRoute,
   ReviewRoute,
@@ -74,6 +75,14 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['admin']}>
             <PeoplePage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'materials',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <MaterialsPage />
           </RequireRole>
         ),
       },

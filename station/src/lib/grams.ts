@@ -15,3 +15,10 @@ export function formatGrams(grams: number, decimals: number): string {
 export function gramsText(grams: number, readabilityG: number): string {
   return `${formatGrams(grams, decimalsForReadability(readabilityG))} g`;
 }
+
+/** A stock quantity: kilograms from 1 kg up ("4.21 kg"), grams below ("380.5 g"). */
+export function stockText(grams: number): string {
+  return Math.abs(grams) >= 1000
+    ? `${formatGrams(Number((grams / 1000).toFixed(2)), 2).replace(/\.?0+$/, '')} kg`
+    : `${formatGrams(Number(grams.toFixed(1)), 1).replace(/\.0$/, '')} g`;
+}

@@ -9,9 +9,7 @@ export function ReviewRoute() {
       <h1 id="review-title" className="text-3xl font-bold">
         Review
       </h1>
-      <p className="mt-2 text-lg text-muted">
-        Batches, materials and lots for leads. Material and lot management are being built.
-      </p>
+      <p className="mt-2 text-lg text-muted">Batches, materials and lots for leads.</p>
       <p className="mt-4 text-lg">
         <Link className="underline" to="/review/batches">
           Batches
@@ -25,6 +23,11 @@ export function ReviewRoute() {
       <p className="mt-4 text-lg">
         <Link className="underline" to="/review/benches">
           Every bench, live
+        </Link>
+      </p>
+      <p className="mt-4 text-lg">
+        <Link className="underline" to="/materials">
+          Materials, lots and stock
         </Link>
       </p>
       <p className="mt-4 text-lg">

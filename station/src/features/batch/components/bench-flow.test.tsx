@@ -126,6 +126,25 @@ describe('choosing what to mix', { timeout: 20_000 }, () => {
     );
   });
 
+  it('shows what each shelf lot holds, and warns before weighing of a lot the batch would overdraw', async () => {
+    hubWith();
+    openBench();
+    await user.click(await screen.findByRole('button', { name: /SC-14/ }));
+    // 4 300 g at 100 : 14 by weight takes 3 771.9 g of resin and 528.1 g of hardener
+    // (4300 × 14 / 114, worked by hand from the definition of parts by weight).
+    await user.type(screen.getByRole('textbox', { name: 'Total mass to mix' }), '4300');
+    await user.click(screen.getByRole('button', { name: 'Next: lots' }));
+    const resin = await screen.findByRole('button', { name: /SC14R-2609/ });
+    expect(resin).toHaveTextContent('4.21 kg on hand');
+    await user.click(resin);
+    expect(screen.queryByRole('alert')).toBeNull();
+    await user.click(screen.getByRole('button', { name: /SC14H-2511/ }));
+    expect(screen.getAllByRole('alert').map((a) => a.textContent)).toEqual([
+      expect.stringContaining('Lot SC14H-2511 expired on 2026-11-30'),
+      expect.stringContaining('Lot SC14H-2511 has 380 g left, this batch needs 528.1 g'),
+    ]);
+  });
+
   it('shows the cautions and the SDS, holds Start until stirred, and shows a refusal in words', async () => {
     const requests = hubWith({
       'POST /batches': () => [

@@ -117,6 +117,7 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
     body = (
       <LotsStep
         material={draft.material}
+        totalMassG={draft.totalMassG}
         codes={draft.lots}
         onChange={(lots) => setDraft((d) => ({ ...d, lots }))}
         onDone={() => goTo('prep')}

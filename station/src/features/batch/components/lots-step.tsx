@@ -1,7 +1,8 @@
-import type { Lot, Material } from '@tareline/protocol';
+import { overdrawWarning, splitTotalG, type Lot, type Material } from '@tareline/protocol';
 import { useId, useState } from 'react';
 import { useLots } from '../api/get-lots';
 import { useCodeScanner } from '../../../hooks/use-code-scanner';
+import { stockText } from '../../../lib/grams';
 import { partName } from '../../../lib/parts';
 import { primaryButton } from './buttons';
 import { HubError } from './hub-error';
@@ -13,21 +14,26 @@ const same = (a: string, b: string) => a.trim().toLowerCase() === b.trim().toLow
 
 /**
  * Step 3: the lot of each part, scanned from its label or picked from the shelf list, with the
- * hub's warnings for expired or long-open lots. Lots are optional.
+ * hub's warnings for expired, long-open or low lots, and a lot that holds less than this batch
+ * needs of its part. Lots are optional.
  */
 export function LotsStep({
   material,
+  totalMassG,
   codes,
   onChange,
   onDone,
 }: {
   material: Material;
+  /** The batch's total, to warn of a lot that holds less than its part needs. */
+  totalMassG?: number | undefined;
   codes: LotCodes;
   onChange: (codes: LotCodes) => void;
   onDone: () => void;
 }) {
   const lots = useLots(material.id);
   const parts = material.weightRatio.map((_, i) => i);
+  const needG = totalMassG ? splitTotalG(totalMassG, material.weightRatio) : undefined;
   const [lastScan, setLastScan] = useState<string>();
 
   useCodeScanner(
@@ -62,6 +68,7 @@ export function LotsStep({
             title={partName(part, material.partLabels[part])}
             code={codes[part] ?? ''}
             shelf={(lots.data ?? []).filter((l) => l.part === part)}
+            needG={needG?.[part]}
             onCode={(code) => onChange({ ...codes, [part]: code })}
           />
         ))}
@@ -79,15 +86,19 @@ function PartLot({
   title,
   code,
   shelf,
+  needG,
   onCode,
 }: {
   title: string;
   code: string;
   shelf: Lot[];
+  needG: number | undefined;
   onCode: (code: string) => void;
 }) {
   const id = useId();
   const chosen = code.trim() ? shelf.find((l) => same(l.code, code)) : undefined;
+  const overdraw = chosen && needG !== undefined ? overdrawWarning(chosen, needG) : undefined;
+  const warnings = chosen ? [...chosen.warnings, ...(overdraw ? [overdraw] : [])] : [];
   return (
     <section aria-labelledby={`${id}-title`} className="rounded-2xl bg-panel p-5 ring-1 ring-line">
       <h3 id={`${id}-title`} className="text-2xl font-bold">
@@ -107,7 +118,7 @@ function PartLot({
       {code.trim() && !chosen && (
         <p className="mt-2 text-lg">Not on the shelf list: it is recorded as scanned.</p>
       )}
-      {chosen?.warnings.map((w) => (
+      {warnings.map((w) => (
         <p
           key={w.code}
           role="alert"
@@ -140,6 +151,9 @@ function PartLot({
                 {lot.expiresOn && (
                   <span className="block text-base font-normal">use by {lot.expiresOn}</span>
                 )}
+                <span className="block text-base font-normal">
+                  {stockText(lot.onHandG)} on hand
+                </span>
               </button>
             );
           })}

@@ -17,6 +17,8 @@ export const sc14Lots: Lot[] = [
     part: 0,
     code: 'SC14R-2609',
     expiresOn: '2027-09-30',
+    receivedG: 5000,
+    onHandG: 4210.5,
     warnings: [],
   },
   {
@@ -25,6 +27,8 @@ export const sc14Lots: Lot[] = [
     part: 1,
     code: 'SC14H-2511',
     expiresOn: '2026-11-30',
+    receivedG: 500,
+    onHandG: 380,
     warnings: [{ code: 'LOT_EXPIRED', message: 'Lot SC14H-2511 expired on 2026-11-30' }],
   },
 ];

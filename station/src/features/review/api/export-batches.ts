@@ -1,6 +1,4 @@
-import { apiErrorSchema } from '@tareline/protocol';
-import { ApiRequestError } from '../../../lib/api-client';
-import { getToken } from '../../../lib/auth';
+import { downloadFromHub } from '../../../lib/download';
 import { batchQuery, type BatchFilter } from './get-batches';
 
 /** The address of the CSV of a filter's batches (every page, not only those shown). */
@@ -9,33 +7,11 @@ export function exportAddress(filter: BatchFilter): string {
   return `/api/batches/export.csv${query ? `?${query}` : ''}`;
 }
 
-/**
- * Downloads the CSV. The hub wants the session's token in a header, which a plain link cannot
- * send: the file is fetched, then handed to the browser as a download.
- */
-export async function downloadBatchesCsv(filter: BatchFilter): Promise<void> {
-  const token = getToken();
-  let response: Response;
-  try {
-    response = await fetch(exportAddress(filter), {
-      headers: { Accept: 'text/csv', ...(token ? { Authorization: `Bearer ${token}` } : {}) },
-    });
-  } catch {
-    throw new ApiRequestError(0, { message: 'The hub cannot be reached', errors: [] });
-  }
-  if (!response.ok) {
-    const parsed = apiErrorSchema.safeParse(await response.json().catch(() => undefined));
-    throw new ApiRequestError(
-      response.status,
-      parsed.success ? parsed.data : { message: `The hub answered ${response.status}`, errors: [] },
-    );
-  }
-  const url = URL.createObjectURL(await response.blob());
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = `batches-${new Date().toISOString().slice(0, 10)}.csv`;
-  document.body.append(link);
-  link.click();
-  link.remove();
-  URL.revokeObjectURL(url);
+/** Downloads the CSV of every batch the filter matches. */
+export function downloadBatchesCsv(filter: BatchFilter): Promise<void> {
+  return downloadFromHub(
+    exportAddress(filter),
+    `batches-${new Date().toISOString().slice(0, 10)}.csv`,
+    'text/csv',
+  );
 }
