@@ -68,11 +68,7 @@ export class MaterialsRepository {
     values: Partial<NewMaterialRow>,
     db: DbOrTx = this.db,
   ): Promise<MaterialRow | undefined> {
-    const [row] = await db
-      .update(materials)
-      .set(values)
-      .where(eq(materials.id, id))
-      .returning();
+    const [row] = await db.update(materials).set(values).where(eq(materials.id, id)).returning();
     return row;
   }
 
