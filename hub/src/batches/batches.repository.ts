@@ -1,5 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import {
+  batchCost,
   WEIGHING_STATES,
   type AccuracyRow,
   type Batch,
@@ -26,6 +27,8 @@ export type BatchDetail = Pick<
 > & {
   potLifeMin: number | null;
   potLifeMassG: number | null;
+  /** The material's price per kg of each part when the batch started; absent or null: none. */
+  costPerKg?: number[] | null;
   handledBy?: NonNullable<Batch['handledBy']>;
   /** The hub restarted mid-pour: the balance's tare may be gone, so resume asks again. */
   tareLost?: boolean;
@@ -63,7 +66,10 @@ export function recordOf(row: BatchRow): BatchRecord {
 /** A record's working data for the `detail` column, keeping what only the row knows. */
 export function detailFor(
   rec: BatchRecord,
-  keep: Pick<BatchDetail, 'potLifeMin' | 'potLifeMassG' | 'handledBy' | 'tareLost' | 'tareGrossG'>,
+  keep: Pick<
+    BatchDetail,
+    'potLifeMin' | 'potLifeMassG' | 'costPerKg' | 'handledBy' | 'tareLost' | 'tareGrossG'
+  >,
 ): BatchDetail {
   return {
     parts: rec.parts,
@@ -74,6 +80,7 @@ export function detailFor(
     lots: rec.lots,
     potLifeMin: keep.potLifeMin,
     potLifeMassG: keep.potLifeMassG,
+    ...(keep.costPerKg ? { costPerKg: keep.costPerKg } : {}),
     ...(keep.handledBy ? { handledBy: keep.handledBy } : {}),
     ...(keep.tareLost ? { tareLost: true } : {}),
     ...(keep.tareGrossG !== undefined ? { tareGrossG: keep.tareGrossG } : {}),
@@ -91,6 +98,7 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     benchId: row.benchId,
     materialId: row.materialId,
     materialName: row.materialName,
+    planId: row.planId,
     operator: { id: row.operatorId, name: row.operatorName },
     ...(d.handledBy?.length ? { handledBy: d.handledBy } : {}),
     totalMassG: rec.totalMassG,
@@ -110,6 +118,10 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     steps: rec.steps,
     createdAt: row.createdAt.toISOString(),
     savedAt: rec.state === 'saved' ? (rec.steps.saved ?? null) : null,
+    cost: batchCost(
+      rec.parts.map((p) => p.actualG),
+      d.costPerKg ?? undefined,
+    ),
     ...(trace ? { trace } : {}),
   };
 }

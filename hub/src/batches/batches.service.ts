@@ -1,8 +1,10 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
-import type { Batch, CreateBatch } from '@tareline/protocol';
+import { costPerKgOf, type Batch, type createBatchSchema } from '@tareline/protocol';
+import type { z } from 'zod';
 import type { AuthUser } from '../auth/auth-user.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
+import { PourPlansService } from '../pour-plans/pour-plans.service.js';
 import {
   abandon,
   BatchRefusal,
@@ -41,6 +43,7 @@ export class BatchesService {
     @Inject(BatchesRepository) private readonly store: BatchStore,
     @Inject(BenchSessions) private readonly sessions: BenchSessions,
     @Inject(MaterialsService) private readonly materials: MaterialsService,
+    @Inject(PourPlansService) private readonly plans: PourPlansService,
   ) {}
 
   // ---- queries ---------------------------------------------------------------------------
@@ -80,7 +83,15 @@ export class BatchesService {
 
   // ---- operator intents --------------------------------------------------------------------
 
-  async create(input: Required<CreateBatch>, user: AuthUser): Promise<Batch> {
+  /** A batch of a material and total, or from a pour plan (its total recomputed now). */
+  async create(body: z.output<typeof createBatchSchema>, user: AuthUser): Promise<Batch> {
+    const plan = body.planId ? await this.plans.forBatch(body.planId) : undefined;
+    const input = {
+      benchId: body.benchId,
+      lots: body.lots,
+      materialId: plan?.materialId ?? body.materialId ?? '',
+      totalMassG: plan?.totalMassG ?? body.totalMassG ?? 0,
+    };
     requireBenchAccess(user, input.benchId);
     if (!this.sessions.hasBench(input.benchId)) {
       throw new NotFound(`No bench ${input.benchId}`, [
@@ -139,6 +150,7 @@ export class BatchesService {
     const detail = detailFor(rec, {
       potLifeMin: material.potLifeMin ?? null,
       potLifeMassG: material.potLifeMassG ?? null,
+      costPerKg: costPerKgOf(material) ?? null,
     });
     const row = await this.store.insert({
       benchId: input.benchId,
@@ -146,6 +158,7 @@ export class BatchesService {
       operatorName: user.name,
       materialId: material.id,
       materialName: material.name,
+      planId: plan?.planId ?? null,
       state: rec.state,
       totalMassG: rec.totalMassG,
       weightRatio: rec.weightRatio,

@@ -11,6 +11,7 @@ import {
 } from 'drizzle-orm/pg-core';
 import { benches } from './benches.js';
 import { materials } from './materials.js';
+import { pourPlans } from './pour-plans.js';
 
 const bytea = customType<{ data: Uint8Array; driverData: Uint8Array }>({
   dataType: () => 'bytea',
@@ -31,6 +32,8 @@ export const batches = pgTable(
       .notNull()
       .references(() => materials.id),
     materialName: text('material_name').notNull(),
+    /** The pour plan the batch was started from, if any. */
+    planId: text('plan_id').references(() => pourPlans.id),
     state: text('state', {
       enum: ['weighing-a', 'weighing-b', 'weighing-c', 'saved', 'abandoned', 'interrupted'],
     }).notNull(),
@@ -55,6 +58,7 @@ export const batches = pgTable(
   (t) => [
     index('batches_bench_state').on(t.benchId, t.state),
     index('batches_created').on(t.createdAt),
+    index('batches_plan').on(t.planId, t.createdAt),
     // The lead's list sorted by deviation: the sort keys of `batches.repository.ts` exactly
     // (a batch without a deviation at the far end each way), with the number that breaks ties.
     index('batches_dev_up').on(sql`coalesce(${t.ratioDeviationPct}, 'Infinity'::float8)`, t.id),

@@ -6,3 +6,5 @@ export * from './people.js';
 export * from './alerts.js';
 export * from './dispositions.js';
 export * from './audit.js';
+export * from './pour-plans.js';
+export * from './documents.js';

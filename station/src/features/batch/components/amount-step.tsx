@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import {
-  createBatchSchema,
+  batchTotalMassSchema,
   type Material,
   type PlanMaterial,
   type PlanRequestInput,
@@ -12,7 +12,7 @@ import { asNumber, NumberField } from '../../../components/form/field';
 import { useBenches } from '../../../lib/benches';
 import { primaryButton, secondaryButton } from './buttons';
 
-const amountSchema = z.object({ totalMassG: createBatchSchema.shape.totalMassG });
+const amountSchema = z.object({ totalMassG: batchTotalMassSchema });
 type AmountForm = z.input<typeof amountSchema>;
 
 /**
