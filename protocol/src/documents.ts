@@ -4,6 +4,9 @@ import { recordIdSchema } from './text.js';
 /** The most a data sheet may weigh, bytes: 20 MB. */
 export const MAX_DOCUMENT_BYTES = 20 * 1024 * 1024;
 
+/** How long a link to open a sheet in a browser tab works: the station fetches new ones sooner. */
+export const DOCUMENT_LINK_TTL_MS = 10 * 60_000;
+
 /** `sds`: safety data sheet; `tds`: technical data sheet. */
 export const documentKindSchema = z.enum(['sds', 'tds'], {
   error: 'Say which sheet it is: sds (safety) or tds (technical)',

@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { batchStateSchema, batchVerdictSchema } from './batches.js';
 import { materialIdSchema, type Material } from './materials.js';
 import { MixInputError } from './mix/errors.js';
+import { mixSpecificGravity, specificGravityFromYield } from './mix/material.js';
+import { splitTotalG, weightRatio } from './mix/ratio.js';
 import {
   computePlan,
   planRequestObject,
@@ -127,4 +129,25 @@ export function pourPlanResult(
     }
     throw err;
   }
+}
+
+/**
+ * Each part's mass and volume in a total mass of the material: the split by weight, and each
+ * part's volume from its own SG (the mix's when the parts' are not known).
+ */
+export function partsOfTotal(
+  totalMassG: number,
+  material: Parameters<typeof planMaterialOf>[0],
+): { massG: number; volumeCm3: number }[] {
+  const m = planMaterialOf(material);
+  const partSgs = m.partSpecificGravities;
+  const sg =
+    m.specificGravity ??
+    (m.yieldIn3PerLb !== undefined
+      ? specificGravityFromYield(m.yieldIn3PerLb)
+      : mixSpecificGravity(m.ratio, partSgs ?? []));
+  return splitTotalG(totalMassG, weightRatio(m.ratio, partSgs)).map((massG, i) => ({
+    massG,
+    volumeCm3: massG / (partSgs?.[i] ?? sg),
+  }));
 }

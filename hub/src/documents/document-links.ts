@@ -1,11 +1,9 @@
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
+import { DOCUMENT_LINK_TTL_MS } from '@tareline/protocol';
 import { CLOCK, type Clock } from '../common/clock.js';
 
 export const DOCUMENT_LINK_KEY = Symbol('DOCUMENT_LINK_KEY');
-
-/** How long a link to open a sheet in a browser tab works. */
-export const DOCUMENT_LINK_TTL_MS = 10 * 60_000;
 
 /**
  * Signed links to one document for a few minutes. A browser tab opened from a link cannot send
