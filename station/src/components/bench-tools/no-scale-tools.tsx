@@ -65,7 +65,7 @@ function FillMarks({ parts }: { parts: readonly ToolPart[] }) {
         mark.
         {equal && ' Equal volumes: in a tapered cup the second mark is not twice the first.'}
       </p>
-      <div className="mt-4 grid gap-4 sm:grid-cols-3">
+      <div className="mt-4 flex flex-wrap gap-4">
         {(
           [
             ['Bottom diameter', bottom],
@@ -77,6 +77,7 @@ function FillMarks({ parts }: { parts: readonly ToolPart[] }) {
             key={label}
             label={label}
             unit="cm"
+            inputClassName="w-28"
             value={field.raw}
             onChange={(e) => field.onChange(e.target.value)}
           />

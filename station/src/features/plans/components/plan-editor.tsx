@@ -7,7 +7,7 @@ import {
   type PourPlan,
 } from '@tareline/protocol';
 import { useCallback, useState, type ComponentType } from 'react';
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { Link, Navigate, useParams } from 'react-router-dom';
 import { SelectField, TextField } from '../../../components/form/field';
 import { ApiRequestError } from '../../../lib/api-client';
 import { usePlanMaterials, usePourPlan, useSavePourPlan } from '../api/pour-plan';
@@ -34,7 +34,6 @@ export function PlanEditor({ estimator }: { estimator: PlanEstimator }) {
 }
 
 function PlanForm({ plan, estimator: Estimator }: { plan?: PourPlan; estimator: PlanEstimator }) {
-  const navigate = useNavigate();
   const materials = usePlanMaterials();
   const save = useSavePourPlan(plan?.id);
   const [name, setName] = useState(plan?.name ?? '');
@@ -54,6 +53,7 @@ function PlanForm({ plan, estimator: Estimator }: { plan?: PourPlan; estimator: 
   const checked = pourPlanInputSchema.safeParse(body);
   const problems = checked.success ? [] : checked.error.issues.map((i) => i.message);
   const hubErrors = save.error instanceof ApiRequestError ? save.error.body.errors : [];
+  if (save.data) return <Navigate to={`/plans/${save.data.id}`} replace />;
 
   return (
     <section aria-labelledby="plan-editor-title" className="mx-auto max-w-7xl">
@@ -72,11 +72,7 @@ function PlanForm({ plan, estimator: Estimator }: { plan?: PourPlan; estimator: 
         onSubmit={(e) => {
           e.preventDefault();
           if (!checked.success) return;
-          save.mutate(checked.data, {
-            onSuccess: (saved) => {
-              void navigate(`/plans/${saved.id}`);
-            },
-          });
+          save.mutate(checked.data);
         }}
       >
         <TextField
