@@ -1,5 +1,6 @@
 import {
   planMaterialOf,
+  pourEstimateSchema,
   pourPlanInputSchema,
   type PlanMaterial,
   type PlanRequest,
@@ -7,7 +8,7 @@ import {
   type PourPlan,
 } from '@tareline/protocol';
 import { useCallback, useState, type ComponentType } from 'react';
-import { Link, Navigate, useParams } from 'react-router-dom';
+import { Link, Navigate, useLocation, useParams } from 'react-router-dom';
 import { SelectField, TextField } from '../../../components/form/field';
 import { ApiRequestError } from '../../../lib/api-client';
 import { usePlanMaterials, usePourPlan, useSavePourPlan } from '../api/pour-plan';
@@ -24,16 +25,35 @@ export type PlanEstimator = ComponentType<{
 export function PlanEditor({ estimator }: { estimator: PlanEstimator }) {
   const { planId } = useParams();
   const existing = usePourPlan(planId);
+  // From the planner page: the cavity and allowances typed there.
+  const carried = pourEstimateSchema.safeParse(
+    (useLocation().state as { estimate?: unknown } | null)?.estimate,
+  );
   if (planId && existing.isPending) {
     return <p className="text-lg text-muted">Loading the pour plan…</p>;
   }
   if (planId && existing.error) {
     return <p role="alert">The pour plan cannot be shown: {existing.error.message}</p>;
   }
-  return <PlanForm key={planId ?? 'new'} plan={existing.data} estimator={estimator} />;
+  return (
+    <PlanForm
+      key={planId ?? 'new'}
+      plan={existing.data}
+      estimator={estimator}
+      {...(!planId && carried.success ? { initial: carried.data } : {})}
+    />
+  );
 }
 
-function PlanForm({ plan, estimator: Estimator }: { plan?: PourPlan; estimator: PlanEstimator }) {
+function PlanForm({
+  plan,
+  estimator: Estimator,
+  initial,
+}: {
+  plan?: PourPlan | undefined;
+  estimator: PlanEstimator;
+  initial?: PourEstimateInput;
+}) {
   const materials = usePlanMaterials();
   const save = useSavePourPlan(plan?.id);
   const [name, setName] = useState(plan?.name ?? '');
@@ -125,7 +145,7 @@ function PlanForm({ plan, estimator: Estimator }: { plan?: PourPlan; estimator: 
             material={planMaterialOf(material)}
             tolerancePct={material.tolerancePct}
             onRequest={onRequest}
-            {...(plan ? { initial: plan.estimate } : {})}
+            {...(plan ? { initial: plan.estimate } : initial ? { initial } : {})}
           />
         ) : (
           <p className="text-lg">Choose the material to size the pour.</p>

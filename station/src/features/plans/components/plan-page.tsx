@@ -1,6 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
 import { hasRole, useSession } from '../../../lib/auth';
 import { usePourPlan } from '../api/pour-plan';
+import { cavityText } from '../utils/cavity-text';
 
 const when = (iso: string) => new Date(iso).toLocaleString();
 
@@ -39,7 +40,7 @@ export function PlanPage() {
         <dt className="font-semibold">Material</dt>
         <dd>{p.materialName}</dd>
         <dt className="font-semibold">Cavity</dt>
-        <dd>{e.cavity.shape}</dd>
+        <dd>{cavityText(e.cavity)}</dd>
         <dt className="font-semibold">Allowances</dt>
         <dd>
           {e.displacement ? `model ${e.displacement.volume} ${e.displacement.unit}, ` : ''}
