@@ -11,6 +11,8 @@ import { EventsModule } from './events/events.module.js';
 import { HealthModule } from './health/health.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
 import { PlanModule } from './plan/plan.module.js';
+import { PourPlansModule } from './pour-plans/pour-plans.module.js';
+import { DocumentsModule } from './documents/documents.module.js';
 import { PeopleModule } from './people/people.module.js';
 import { BenchesModule } from './benches/benches.module.js';
 import { BatchesModule } from './batches/batches.module.js';
@@ -34,6 +36,8 @@ export class AppModule {
         LiveModule,
         MaterialsModule,
         PlanModule,
+        PourPlansModule,
+        DocumentsModule,
         PeopleModule,
         DemoModule,
         BatchesModule,

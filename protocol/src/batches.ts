@@ -1,10 +1,11 @@
 import { z } from 'zod';
 import { benchIdSchema } from './benches.js';
+import { batchCostSchema } from './cost.js';
 import { lotWarningSchema, materialIdSchema } from './materials.js';
 import { roleSchema } from './roles.js';
 import { positiveMeasure } from './mix/cavity.js';
 import { pageOf } from './page.js';
-import { text } from './text.js';
+import { recordIdSchema, text } from './text.js';
 
 /** A batch number as it appears in an address: PostgreSQL `integer` ids, 1 to 2³¹ − 1. */
 export const batchNumberSchema = z.coerce
@@ -30,24 +31,52 @@ export type BatchVerdict = z.infer<typeof batchVerdictSchema>;
 
 export const pourVerdictSchema = z.enum(['UNDER', 'SETTLING', 'GO', 'OVER']);
 
-/** Body of `POST /api/batches`. */
-export const createBatchSchema = z.object({
-  benchId: benchIdSchema,
-  materialId: materialIdSchema,
-  totalMassG: positiveMeasure('total mass').max(100_000, {
-    error: 'A batch above 100 kg is surely a typing mistake',
-  }),
-  /** Lot codes as scanned from the labels, one per part at most. */
-  lots: z
-    .array(
-      z.object({
-        part: z.number().int().min(0).max(2),
-        code: text().trim().min(1, { error: 'Scan or enter the lot code' }).max(80),
-      }),
-    )
-    .max(3)
-    .default([]),
+/** The total mass of a batch, g. */
+export const batchTotalMassSchema = positiveMeasure('total mass').max(100_000, {
+  error: 'A batch above 100 kg is surely a typing mistake',
 });
+
+/**
+ * Body of `POST /api/batches`: a material and a total mass, or a saved pour plan (whose material
+ * and total the hub takes, the total recomputed with the material as it is now).
+ */
+export const createBatchSchema = z
+  .object({
+    benchId: benchIdSchema,
+    materialId: materialIdSchema.optional(),
+    totalMassG: batchTotalMassSchema.optional(),
+    planId: recordIdSchema('pour plan', 'Choose a pour plan').optional(),
+    /** Lot codes as scanned from the labels, one per part at most. */
+    lots: z
+      .array(
+        z.object({
+          part: z.number().int().min(0).max(2),
+          code: text().trim().min(1, { error: 'Scan or enter the lot code' }).max(80),
+        }),
+      )
+      .max(3)
+      .default([]),
+  })
+  .superRefine((b, ctx) => {
+    if (b.planId !== undefined) {
+      for (const key of ['materialId', 'totalMassG'] as const) {
+        if (b[key] !== undefined) {
+          ctx.addIssue({
+            code: 'custom',
+            path: [key],
+            message: "A batch from a pour plan takes the plan's material and total",
+          });
+        }
+      }
+      return;
+    }
+    if (b.materialId === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['materialId'], message: 'Choose the material' });
+    }
+    if (b.totalMassG === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['totalMassG'], message: 'Enter the total mass' });
+    }
+  });
 export type CreateBatch = z.input<typeof createBatchSchema>;
 
 export const abandonBatchSchema = z.object({
@@ -188,6 +217,8 @@ export const batchSchema = z.object({
   benchId: z.string(),
   materialId: z.string(),
   materialName: z.string(),
+  /** The pour plan the batch was started from; absent for a batch sized by hand. */
+  planId: z.string().nullable().optional(),
   operator: z.object({ id: z.string(), name: z.string() }),
   /**
    * Everyone else who acted on the batch (a shift change mid-batch, a lead resuming it), each
@@ -226,6 +257,11 @@ export const batchSchema = z.object({
   steps: z.record(z.string(), z.string()),
   createdAt: z.string(),
   savedAt: z.string().nullable(),
+  /**
+   * What the weighed parts cost at the material's prices when the batch started; null when the
+   * material had no price for every part.
+   */
+  cost: batchCostSchema.nullable().optional(),
   /** Every reading of the batch as [ms since start, net g]. Only on the single-batch answer. */
   trace: z.array(z.tuple([z.number(), z.number()])).optional(),
   /** The latest decision on the batch, null before any. Only on the single-batch answer. */

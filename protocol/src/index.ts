@@ -15,3 +15,6 @@ export * from './scale-stability.js';
 export * from './alerts.js';
 export * from './audit.js';
 export * from './page.js';
+export * from './cost.js';
+export * from './pour-plans.js';
+export * from './documents.js';

@@ -1,13 +1,16 @@
-import { copyFile, mkdir, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { cp, copyFile, mkdir, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
 import * as tar from 'tar';
 import type { Database } from '../database/database.js';
+import { DOCUMENTS_FOLDER } from '../documents/document-files.js';
 
 /** The data folder's own secrets: without them restored badges and sessions would not check. */
 const SECRET_FILES = ['jwt-secret', 'badge-key'] as const;
 const DATABASE_ENTRY = 'database.tar.gz';
+/** The data sheets' PDFs, kept beside the database rows that name them. */
+const DOCUMENTS_ENTRY = DOCUMENTS_FOLDER;
 
 /** A restore was asked into a data folder that already holds something. */
 export class RestoreTargetNotEmptyError extends Error {
@@ -31,7 +34,8 @@ async function inTempFolder<T>(run: (dir: string) => Promise<T>): Promise<T> {
 
 /**
  * A backup of a hub's data as a gzipped tarball: the embedded PostgreSQL's own dump (taken
- * between two statements of its single connection, so consistent) and the folder's secrets.
+ * between two statements of its single connection, so consistent), the folder's secrets and
+ * the data sheets' PDFs.
  */
 export function backupOf(database: Database): Promise<Buffer> {
   return inTempFolder(async (work) => {
@@ -47,6 +51,13 @@ export function backupOf(database: Database): Promise<Buffer> {
       );
       if (copied) entries.push(name);
     }
+    const documents = await cp(join(database.dir, DOCUMENTS_ENTRY), join(work, DOCUMENTS_ENTRY), {
+      recursive: true,
+    }).then(
+      () => true,
+      () => false, // no sheet uploaded yet
+    );
+    if (documents) entries.push(DOCUMENTS_ENTRY);
     const out = join(work, 'backup.tar.gz');
     await tar.c({ gzip: true, file: out, cwd: work, portable: true }, entries);
     return readFile(out);
@@ -69,5 +80,8 @@ export async function restoreBackup(dir: string, backup: Buffer): Promise<void> 
     for (const name of SECRET_FILES) {
       await copyFile(join(work, name), join(dir, name)).catch(() => undefined);
     }
+    await cp(join(work, DOCUMENTS_ENTRY), join(dir, DOCUMENTS_ENTRY), { recursive: true }).catch(
+      () => undefined, // a backup from before sheets were kept, or with none
+    );
   });
 }

@@ -9,6 +9,7 @@ import type {
   CreateDisposition,
   DispositionDecision,
 } from '@tareline/protocol';
+import { roundCents } from '@tareline/protocol';
 import { stringify } from 'csv-stringify';
 import { AuditRepository } from '../audit/audit.repository.js';
 import type { AuthUser } from '../auth/auth-user.js';
@@ -199,6 +200,7 @@ const CSV_COLUMNS = [
   { key: 'tolerancePct', header: 'tolerance %' },
   ...PART_NAMES.map((p) => ({ key: `lot${p}`, header: `part ${p} lot` })),
   { key: 'readabilityG', header: 'readability g' },
+  { key: 'costTotal', header: 'costTotal' },
 ];
 
 function csvRow(b: BatchSummary): Record<string, string | number | null> {
@@ -216,6 +218,7 @@ function csvRow(b: BatchSummary): Record<string, string | number | null> {
     deviationPct: b.state === 'abandoned' ? null : b.ratioDeviationPct,
     tolerancePct: b.tolerancePct,
     readabilityG: b.readabilityG,
+    costTotal: b.cost ? roundCents(b.cost.total) : null,
   };
   PART_NAMES.forEach((p, i) => {
     row[`target${p}`] = b.parts[i]?.targetG ?? null;

@@ -7,6 +7,7 @@ import { statusOf } from '../common/api-exception.filter.js';
 import { NotAllowed, NotFound, ScaleCommandFailed } from '../common/domain-errors.js';
 import { ScaleCommandError } from '../scales/scale-link.js';
 import type { MaterialsService } from '../materials/materials.service.js';
+import type { PourPlansService } from '../pour-plans/pour-plans.service.js';
 import { BatchRunner, TRACE_FLUSH_MS } from './batch-runner.js';
 import { BatchesService } from './batches.service.js';
 import { BenchSessions } from './bench-sessions.js';
@@ -34,6 +35,12 @@ const materials = {
   },
   findLot: async () => undefined,
 } as unknown as MaterialsService;
+/** No pour plans here: these batches are sized by hand. */
+const plans = {
+  forBatch: async (id: string) => {
+    throw new NotFound(`No pour plan ${id}`);
+  },
+} as unknown as PourPlansService;
 
 const TOMAS: AuthUser = {
   id: 'p-tomas',
@@ -58,7 +65,7 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     runner = new BatchRunner(sessions, scales, events, clock, {
       batches: { saveDwellMs: DWELL_MS },
     });
-    service = new BatchesService(store, sessions, materials);
+    service = new BatchesService(store, sessions, materials, plans);
     await runner.onApplicationBootstrap();
   }
 

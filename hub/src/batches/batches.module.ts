@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { AuditModule } from '../audit/audit.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
+import { PourPlansModule } from '../pour-plans/pour-plans.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
 import { AccuracyController } from './accuracy.controller.js';
 import { BatchDeskRepository } from './batch-desk.repository.js';
@@ -17,7 +18,7 @@ import { BenchSessions } from './bench-sessions.js';
  * and the service (what people ask). They publish `batch.changed` and `pour.judged`.
  */
 @Module({
-  imports: [ScalesModule, MaterialsModule, AuditModule],
+  imports: [ScalesModule, MaterialsModule, PourPlansModule, AuditModule],
   controllers: [BatchesController, AccuracyController],
   providers: [
     BatchesRepository,

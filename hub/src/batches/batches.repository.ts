@@ -1,5 +1,5 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
+import { batchCost, WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
 import { and, desc, eq, gte, inArray, sql, type SQL } from 'drizzle-orm';
 import { Database, type DbOrTx } from '../database/database.js';
 import { batches } from '../database/schema/index.js';
@@ -16,6 +16,8 @@ export type BatchDetail = Pick<
 > & {
   potLifeMin: number | null;
   potLifeMassG: number | null;
+  /** The material's price per kg of each part when the batch started; absent or null: none. */
+  costPerKg?: number[] | null;
   handledBy?: NonNullable<Batch['handledBy']>;
   /** The hub restarted mid-pour: the balance's tare may be gone, so resume asks again. */
   tareLost?: boolean;
@@ -53,7 +55,10 @@ export function recordOf(row: BatchRow): BatchRecord {
 /** A record's working data for the `detail` column, keeping what only the row knows. */
 export function detailFor(
   rec: BatchRecord,
-  keep: Pick<BatchDetail, 'potLifeMin' | 'potLifeMassG' | 'handledBy' | 'tareLost' | 'tareGrossG'>,
+  keep: Pick<
+    BatchDetail,
+    'potLifeMin' | 'potLifeMassG' | 'costPerKg' | 'handledBy' | 'tareLost' | 'tareGrossG'
+  >,
 ): BatchDetail {
   return {
     parts: rec.parts,
@@ -64,6 +69,7 @@ export function detailFor(
     lots: rec.lots,
     potLifeMin: keep.potLifeMin,
     potLifeMassG: keep.potLifeMassG,
+    ...(keep.costPerKg ? { costPerKg: keep.costPerKg } : {}),
     ...(keep.handledBy ? { handledBy: keep.handledBy } : {}),
     ...(keep.tareLost ? { tareLost: true } : {}),
     ...(keep.tareGrossG !== undefined ? { tareGrossG: keep.tareGrossG } : {}),
@@ -81,6 +87,7 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     benchId: row.benchId,
     materialId: row.materialId,
     materialName: row.materialName,
+    planId: row.planId,
     operator: { id: row.operatorId, name: row.operatorName },
     ...(d.handledBy?.length ? { handledBy: d.handledBy } : {}),
     totalMassG: rec.totalMassG,
@@ -100,6 +107,10 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     steps: rec.steps,
     createdAt: row.createdAt.toISOString(),
     savedAt: rec.state === 'saved' ? (rec.steps.saved ?? null) : null,
+    cost: batchCost(
+      rec.parts.map((p) => p.actualG),
+      d.costPerKg ?? undefined,
+    ),
     ...(trace ? { trace } : {}),
   };
 }

@@ -1,8 +1,16 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
-import { overdrawWarning, splitTotalG, type Batch, type CreateBatch } from '@tareline/protocol';
+import {
+  costPerKgOf,
+  overdrawWarning,
+  splitTotalG,
+  type Batch,
+  type createBatchSchema,
+} from '@tareline/protocol';
+import type { z } from 'zod';
 import type { AuthUser } from '../auth/auth-user.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
+import { PourPlansService } from '../pour-plans/pour-plans.service.js';
 import {
   abandon,
   BatchRefusal,
@@ -41,6 +49,7 @@ export class BatchesService {
     @Inject(BatchesRepository) private readonly store: BatchStore,
     @Inject(BenchSessions) private readonly sessions: BenchSessions,
     @Inject(MaterialsService) private readonly materials: MaterialsService,
+    @Inject(PourPlansService) private readonly plans: PourPlansService,
   ) {}
 
   // ---- queries ---------------------------------------------------------------------------
@@ -80,7 +89,15 @@ export class BatchesService {
 
   // ---- operator intents --------------------------------------------------------------------
 
-  async create(input: Required<CreateBatch>, user: AuthUser): Promise<Batch> {
+  /** A batch of a material and total, or from a pour plan (its total recomputed now). */
+  async create(body: z.output<typeof createBatchSchema>, user: AuthUser): Promise<Batch> {
+    const plan = body.planId ? await this.plans.forBatch(body.planId) : undefined;
+    const input = {
+      benchId: body.benchId,
+      lots: body.lots,
+      materialId: plan?.materialId ?? body.materialId ?? '',
+      totalMassG: plan?.totalMassG ?? body.totalMassG ?? 0,
+    };
     requireBenchAccess(user, input.benchId);
     if (!this.sessions.hasBench(input.benchId)) {
       throw new NotFound(`No bench ${input.benchId}`, [
@@ -144,6 +161,7 @@ export class BatchesService {
     const detail = detailFor(rec, {
       potLifeMin: material.potLifeMin ?? null,
       potLifeMassG: material.potLifeMassG ?? null,
+      costPerKg: costPerKgOf(material) ?? null,
     });
     const row = await this.store.insert({
       benchId: input.benchId,
@@ -151,6 +169,7 @@ export class BatchesService {
       operatorName: user.name,
       materialId: material.id,
       materialName: material.name,
+      planId: plan?.planId ?? null,
       state: rec.state,
       totalMassG: rec.totalMassG,
       weightRatio: rec.weightRatio,

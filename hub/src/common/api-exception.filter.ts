@@ -21,6 +21,8 @@ import {
   NotSignedIn,
   ScaleCommandFailed,
   StoreUnavailable,
+  TooLarge,
+  UnsupportedType,
 } from './domain-errors.js';
 
 type DomainErrorClass = abstract new (...args: never[]) => DomainError;
@@ -35,6 +37,8 @@ const STATUS_OF: ReadonlyArray<readonly [DomainErrorClass, (err: DomainError) =>
   [BenchBusy, () => HttpStatus.CONFLICT],
   [NotApplicable, () => HttpStatus.UNPROCESSABLE_ENTITY],
   [LockedOut, () => HttpStatus.LOCKED],
+  [UnsupportedType, () => HttpStatus.UNSUPPORTED_MEDIA_TYPE],
+  [TooLarge, () => HttpStatus.PAYLOAD_TOO_LARGE],
   // A balance that answered "busy" (moving, overloaded) is the operator's to wait out: 409.
   // One that did not answer at all is a service that is away: 503.
   [

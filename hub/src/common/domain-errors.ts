@@ -63,3 +63,9 @@ export class ScaleCommandFailed extends DomainError {
 
 /** The request is fine but the thing it acts on cannot take it (not a simulated scale, say). */
 export class NotApplicable extends DomainError {}
+
+/** The content is not of a type this route takes (a data sheet that is not a PDF). */
+export class UnsupportedType extends DomainError {}
+
+/** The content is larger than this route takes. */
+export class TooLarge extends DomainError {}

@@ -93,7 +93,8 @@ export const planScaleSchema = z.object({
     .optional(),
 });
 
-const planRequestObject = z.object(
+/** The plan request's fields, before the checks that need the arithmetic. */
+export const planRequestObject = z.object(
   {
     cavity: cavitySchema,
     /** Volume of the model, which the material does not fill. */

@@ -44,3 +44,17 @@ export const MaterialsPage = lazy(() =>
     default: m.MaterialsPage,
   })),
 );
+export const PlansPage = lazy(() =>
+  import('../features/plans/components/plans-page').then((m) => ({ default: m.PlansPage })),
+);
+export const PlanPage = lazy(() =>
+  import('../features/plans/components/plan-page').then((m) => ({ default: m.PlanPage })),
+);
+export const PlanEditorRoute = lazy(() =>
+  import('./routes/plans').then((m) => ({ default: m.PlanEditorRoute })),
+);
+export const MaterialDocumentsPage = lazy(() =>
+  import('../features/material-docs/components/material-documents-page').then((m) => ({
+    default: m.MaterialDocumentsPage,
+  })),
+);

@@ -11,8 +11,12 @@ import {
   BenchesOverview,
   BenchScaleRoute,
   MaterialsPage,
+  MaterialDocumentsPage,
   PeoplePage,
+  PlanEditorRoute,
+  PlanPage,
   PlanRoute,
+  PlansPage,
   ReviewRoute,
 } from './lazy-pages';
 import { BenchHomeRoute, BenchRoute } from './routes/bench';
@@ -95,6 +99,47 @@ export const routes: RouteObject[] = [
         ),
       },
       { path: 'plan', element: <PlanRoute /> },
+      {
+        path: 'plans',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <PlansPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'plans/new',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <PlanEditorRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'plans/:planId',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <PlanPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'plans/:planId/edit',
+        element: (
+          <RequireRole roles={['lead', 'admin']}>
+            <PlanEditorRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        // The material page links here: every version of its data sheets.
+        path: 'materials/:materialId/documents',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <MaterialDocumentsPage />
+          </RequireRole>
+        ),
+      },
       {
         // Setting up and checking a scale is desk work for leads and admins.
         path: 'bench/:benchId/scale',

@@ -12,6 +12,7 @@ import {
 } from 'drizzle-orm/pg-core';
 import { benches } from './benches.js';
 import { materials } from './materials.js';
+import { pourPlans } from './pour-plans.js';
 
 /** A batch's lot codes, lower-cased, as a JSON array of strings (what the GIN index holds). */
 export const lotCodesKey = (detail: AnyPgColumn | SQL) =>
@@ -36,6 +37,8 @@ export const batches = pgTable(
       .notNull()
       .references(() => materials.id),
     materialName: text('material_name').notNull(),
+    /** The pour plan the batch was started from, if any. */
+    planId: text('plan_id').references(() => pourPlans.id),
     state: text('state', {
       enum: ['weighing-a', 'weighing-b', 'weighing-c', 'saved', 'abandoned', 'interrupted'],
     }).notNull(),
@@ -64,6 +67,7 @@ export const batches = pgTable(
     index('batches_bench_created').on(t.benchId, t.createdAt, t.id),
     // The lead's lot search: the search filters on the same `lotCodesKey` expression (`@>`).
     index('batches_lot_codes').using('gin', lotCodesKey(t.detail)),
+    index('batches_plan').on(t.planId, t.createdAt),
     // The lead's list sorted by deviation: the sort keys of `batches.repository.ts` exactly
     // (a batch without a deviation at the far end each way), with the number that breaks ties.
     index('batches_dev_up').on(sql`coalesce(${t.ratioDeviationPct}, 'Infinity'::float8)`, t.id),

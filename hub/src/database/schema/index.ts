@@ -7,3 +7,5 @@ export * from './alerts.js';
 export * from './dispositions.js';
 export * from './audit.js';
 export * from './accuracy.js';
+export * from './pour-plans.js';
+export * from './documents.js';

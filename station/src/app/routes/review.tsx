@@ -31,6 +31,11 @@ export function ReviewRoute() {
         </Link>
       </p>
       <p className="mt-4 text-lg">
+        <Link className="underline" to="/plans">
+          Pour plans
+        </Link>
+      </p>
+      <p className="mt-4 text-lg">
         <Link className="underline" to="/review/accuracy">
           Accuracy over time
         </Link>

@@ -1,18 +1,27 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import {
-  createBatchSchema,
+  batchTotalMassSchema,
+  partsOfTotal,
+  planMaterialOf,
   type Material,
   type PlanMaterial,
   type PlanRequestInput,
 } from '@tareline/protocol';
-import { useMemo, useState, type ComponentType } from 'react';
-import { useForm } from 'react-hook-form';
+import { lazy, Suspense, useMemo, useState, type ComponentType } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { asNumber, NumberField } from '../../../components/form/field';
 import { useBenches } from '../../../lib/benches';
 import { primaryButton, secondaryButton } from './buttons';
 
-const amountSchema = z.object({ totalMassG: createBatchSchema.shape.totalMassG });
+// Measuring without a scale is rare at a bench built around one: its code loads when asked for.
+const NoScaleTools = lazy(() =>
+  import('../../../components/bench-tools/no-scale-tools').then((m) => ({
+    default: m.NoScaleTools,
+  })),
+);
+
+const amountSchema = z.object({ totalMassG: batchTotalMassSchema });
 type AmountForm = z.input<typeof amountSchema>;
 
 /**
@@ -41,10 +50,12 @@ export function AmountStep({
   onDone: (totalMassG: number) => void;
 }) {
   const [estimating, setEstimating] = useState(false);
+  const [noScale, setNoScale] = useState(false);
   const {
     register,
     handleSubmit,
     setValue,
+    control,
     formState: { errors },
   } = useForm<AmountForm>({
     resolver: zodResolver(amountSchema),
@@ -52,17 +63,16 @@ export function AmountStep({
   });
   const benches = useBenches();
   const scale = benches.data?.find((b) => b.id === benchId)?.scale;
-  const planMaterial = useMemo<PlanMaterial>(
-    () => ({
-      ratio: material.ratio,
-      ...(material.specificGravity !== undefined && { specificGravity: material.specificGravity }),
-      ...(material.yieldIn3PerLb !== undefined && { yieldIn3PerLb: material.yieldIn3PerLb }),
-      ...(material.partSpecificGravities !== undefined && {
-        partSpecificGravities: material.partSpecificGravities,
-      }),
-    }),
-    [material],
-  );
+  const planMaterial = useMemo<PlanMaterial>(() => planMaterialOf(material), [material]);
+  const typedG = asNumber(useWatch({ control, name: 'totalMassG' }));
+  const noScaleParts = useMemo(() => {
+    const parsed = batchTotalMassSchema.safeParse(typedG);
+    if (!parsed.success) return undefined;
+    return partsOfTotal(parsed.data, material).map((p, i) => ({
+      ...p,
+      label: material.partLabels[i] ?? `Part ${'ABC'[i]}`,
+    }));
+  }, [typedG, material]);
   const planScale = useMemo(
     () =>
       scale && {
@@ -100,7 +110,30 @@ export function AmountStep({
         >
           {estimating ? 'Close the volume estimator' : 'Work it out from the mold'}
         </button>
+        <button
+          type="button"
+          aria-expanded={noScale}
+          onClick={() => setNoScale((n) => !n)}
+          className={secondaryButton}
+        >
+          {noScale ? 'Close: back to the scale' : 'No scale here'}
+        </button>
       </form>
+      {noScale && (
+        <section aria-label="No scale here" className="flex flex-col gap-4">
+          <p className="text-lg">
+            Without a scale nothing is weighed, judged or recorded: measure by volume or by pump
+            strokes, and the batch is not in Tareline.
+          </p>
+          {noScaleParts ? (
+            <Suspense fallback={<p className="text-xl text-muted">Loading the bench tools…</p>}>
+              <NoScaleTools parts={noScaleParts} />
+            </Suspense>
+          ) : (
+            <p className="text-xl">Enter the total mass to mix first.</p>
+          )}
+        </section>
+      )}
       {estimating && (
         <VolumeEstimator
           material={planMaterial}

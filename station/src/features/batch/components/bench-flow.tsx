@@ -1,4 +1,4 @@
-import { WEIGHING_STATES, type Material } from '@tareline/protocol';
+import { WEIGHING_STATES, type Material, type PourPlan } from '@tareline/protocol';
 import { useState } from 'react';
 import { useSession } from '../../../lib/auth';
 import { useLiveBench } from '../../../hooks/use-live-bench';
@@ -30,6 +30,8 @@ type DraftStep = Exclude<StepKey, 'weigh' | 'saved'>;
 interface Draft {
   step: DraftStep;
   material?: Material;
+  /** The pour plan chosen in step 1: its material and total, no amount step. */
+  plan?: PourPlan;
   totalMassG?: number;
   lots: LotCodes;
 }
@@ -67,7 +69,7 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
     lots: 'amount',
     prep: 'lots',
   };
-  const backTo = batch ? undefined : back[step];
+  const backTo = batch ? undefined : step === 'lots' && draft.plan ? 'material' : back[step];
 
   let body;
   if (live.refused) {
@@ -95,9 +97,17 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
       <ChooseMaterial
         onChoose={(m) =>
           setDraft((d) => ({
-            ...d,
             step: 'amount',
             material: m,
+            lots: m.id === d.material?.id ? d.lots : {},
+          }))
+        }
+        onChoosePlan={(plan, m) =>
+          setDraft((d) => ({
+            step: 'lots',
+            material: m,
+            plan,
+            totalMassG: plan.totalMassG,
             lots: m.id === d.material?.id ? d.lots : {},
           }))
         }
@@ -110,7 +120,9 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
         material={draft.material}
         initialG={draft.totalMassG}
         estimator={estimator}
-        onDone={(totalMassG) => setDraft((d) => ({ ...d, step: 'lots', totalMassG }))}
+        onDone={(totalMassG) =>
+          setDraft(({ plan: _plan, ...d }) => ({ ...d, step: 'lots', totalMassG }))
+        }
       />
     );
   } else if (step === 'lots') {
@@ -130,16 +142,17 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
         material={chosen}
         starting={create.isPending}
         startError={create.error}
-        onStart={() =>
-          create.mutate({
-            benchId,
-            materialId: chosen.id,
-            totalMassG: draft.totalMassG ?? 0,
-            lots: Object.entries(draft.lots)
-              .filter(([, code]) => code.trim() !== '')
-              .map(([part, code]) => ({ part: Number(part), code: code.trim() })),
-          })
-        }
+        onStart={() => {
+          const lots = Object.entries(draft.lots)
+            .filter(([, code]) => code.trim() !== '')
+            .map(([part, code]) => ({ part: Number(part), code: code.trim() }));
+          // From a plan the hub takes the plan's total, recomputed if the material changed.
+          create.mutate(
+            draft.plan
+              ? { benchId, planId: draft.plan.id, lots }
+              : { benchId, materialId: chosen.id, totalMassG: draft.totalMassG ?? 0, lots },
+          );
+        }}
       />
     );
   }
@@ -161,6 +174,7 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
         </ol>
         {material && (
           <p className="text-xl">
+            {!batch && draft.plan && <>{draft.plan.name} · </>}
             <strong>{material.name}</strong> · {ratioText(material)}
             {(batch?.totalMassG ?? draft.totalMassG) !== undefined &&
               ` · ${batch?.totalMassG ?? draft.totalMassG} g`}

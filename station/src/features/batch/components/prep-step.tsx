@@ -1,6 +1,7 @@
 import type { Material } from '@tareline/protocol';
 import { useEffect, useState } from 'react';
 import { formatCountdown } from '../../../lib/countdown';
+import { latestSds, useMaterialDocuments } from '../../../lib/material-documents';
 import { dangerButton, primaryButton, secondaryButton } from './buttons';
 import { HubError } from './hub-error';
 
@@ -34,6 +35,7 @@ export function PrepStep({
   const needsAgitation = material.agitateMin > 0;
   const [agitation, setAgitation] = useState<Agitation>({ kind: 'waiting' });
   const ready = !needsAgitation || agitation.kind === 'done' || agitation.kind === 'skipped';
+  const sds = latestSds(useMaterialDocuments(material.id).data);
 
   return (
     <div className="grid items-start gap-6 lg:grid-cols-[3fr_2fr]">
@@ -54,9 +56,22 @@ export function PrepStep({
         </ul>
         <p className="mt-4 text-lg">
           <strong>Safety data sheet:</strong>{' '}
-          {material.sdsRef ?? 'not recorded for this material: ask a lead before you pour'}. It and
-          your local rules come before anything this screen says.
+          {sds
+            ? 'open it with the button below'
+            : (material.sdsRef ?? 'not recorded for this material: ask a lead before you pour')}
+          . It and your local rules come before anything this screen says.
         </p>
+        {sds && (
+          // A plain link: one touch opens the PDF in a new tab, signed for a few minutes.
+          <a
+            href={sds.openUrl}
+            target="_blank"
+            rel="noopener"
+            className={`${secondaryButton} mt-3 inline-flex items-center`}
+          >
+            Open the safety data sheet (PDF)
+          </a>
+        )}
       </section>
 
       <div className="flex flex-col gap-6">

@@ -1,5 +1,6 @@
 import type { Lot, Material } from '@tareline/protocol';
 import { useRef, useState, type ChangeEvent } from 'react';
+import { Link } from 'react-router-dom';
 import { CheckField } from '../../../components/form/field';
 import { ApiRequestError } from '../../../lib/api-client';
 import { stockText } from '../../../lib/grams';
@@ -190,6 +191,13 @@ export function MaterialsPage() {
                     >
                       Lots
                     </button>
+                    <Link
+                      className={`${secondary} inline-flex items-center`}
+                      aria-label={`Safety and data sheets of ${m.name}`}
+                      to={`/materials/${m.id}/documents`}
+                    >
+                      Sheets
+                    </Link>
                     <button
                       type="button"
                       className={secondary}

@@ -9,7 +9,8 @@ import {
   type PlanRequestInput,
   type PlanResponse,
 } from '@tareline/protocol';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { NoScaleTools } from '../../../components/bench-tools/no-scale-tools';
 import {
   get,
   useForm,
@@ -202,6 +203,10 @@ export interface VolumeEstimatorProps {
   onUse?: (totalMassG: number) => void;
   /** The material's own tolerance (the bench flow): used as it is, not asked for. */
   tolerancePct?: number;
+  /** Called with each complete request as typed (a pour plan saves its cavity and allowances). */
+  onRequest?: (request: PlanRequest | undefined) => void;
+  /** Cavity and allowances to start from (editing a saved pour plan). */
+  initial?: Pick<PlanRequestInput, 'cavity' | 'displacement' | 'overagePct' | 'cupLossG'>;
 }
 
 /**
@@ -214,6 +219,8 @@ export function VolumeEstimator({
   onPlan,
   onUse,
   tolerancePct,
+  onRequest,
+  initial,
 }: VolumeEstimatorProps) {
   const resolver = useMemo<Resolver<PlanRequestInput, unknown, PlanRequest>>(() => {
     const base = zodResolver(planRequestSchema);
@@ -235,13 +242,17 @@ export function VolumeEstimator({
     setValue,
     formState: { errors },
   } = useForm<PlanRequestInput, unknown, PlanRequest>({
-    defaultValues: defaults,
+    defaultValues: initial ? { ...defaults, ...initial } : defaults,
     resolver,
     mode: 'onChange',
     shouldUnregister: true,
   });
-  const [cylinderBy, setCylinderBy] = useState<'diameter' | 'radius'>('diameter');
-  const [withModel, setWithModel] = useState(false);
+  const [cylinderBy, setCylinderBy] = useState<'diameter' | 'radius'>(
+    initial?.cavity && 'radius' in initial.cavity && initial.cavity.radius !== undefined
+      ? 'radius'
+      : 'diameter',
+  );
+  const [withModel, setWithModel] = useState(!!initial?.displacement);
   const [threeParts, setThreeParts] = useState(false);
   const [densityMode, setDensityMode] = useState<DensityMode>('sg');
   const [withScale, setWithScale] = useState(false);
@@ -250,8 +261,12 @@ export function VolumeEstimator({
   const basis = useWatch({ control, name: 'material.ratio.basis' });
   const values = useWatch({ control });
 
-  // Length shapes and a known volume take different units under the same field.
+  // Length shapes and a known volume take different units under the same field: a new shape
+  // starts in its usual unit, the shape the form opened with keeps the unit it was given.
+  const shownShape = useRef(shape);
   useEffect(() => {
+    if (shape === shownShape.current) return;
+    shownShape.current = shape;
     if (shape === 'volume') setValue('cavity.unit', 'in3');
     else if (shape !== 'water') setValue('cavity.unit', 'in');
   }, [shape, setValue]);
@@ -275,6 +290,9 @@ export function VolumeEstimator({
   useEffect(() => {
     onPlan?.(preview.plan);
   }, [preview.plan, onPlan]);
+  useEffect(() => {
+    onRequest?.(preview.request);
+  }, [preview.request, onRequest]);
 
   const err = (path: string): string | undefined =>
     get<typeof errors, FieldError | undefined>(errors, path)?.message;
@@ -487,6 +505,20 @@ export function VolumeEstimator({
         {preview.plan ? (
           <>
             <PlanSteps plan={preview.plan} />
+            <details className="rounded-xl bg-panel p-4 ring-1 ring-line">
+              <summary className="cursor-pointer text-xl font-semibold">
+                No scale: fill marks and pump strokes
+              </summary>
+              <div className="mt-3">
+                <NoScaleTools
+                  parts={preview.plan.parts.map((p) => ({
+                    label: `part ${p.name}`,
+                    massG: p.massG,
+                    volumeCm3: p.volumeCm3,
+                  }))}
+                />
+              </div>
+            </details>
             {onUse ? (
               <button
                 type="button"

@@ -3,12 +3,14 @@ import {
   fieldErrors,
   planRequestSchema,
   type ApiError,
+  type PlanRequest,
   type PlanResponse,
 } from '@tareline/protocol';
 import { useMemo } from 'react';
 
 export type PlanPreview =
-  { plan: PlanResponse; problems: [] } | { plan: undefined; problems: ApiError['errors'] };
+  | { plan: PlanResponse; request: PlanRequest; problems: [] }
+  | { plan: undefined; request: undefined; problems: ApiError['errors'] };
 
 /**
  * The plan for what is typed so far, computed on the station with the same pure function the hub
@@ -17,7 +19,9 @@ export type PlanPreview =
 export function usePlanPreview(values: unknown): PlanPreview {
   return useMemo(() => {
     const parsed = planRequestSchema.safeParse(values);
-    if (!parsed.success) return { plan: undefined, problems: fieldErrors(parsed.error) };
-    return { plan: computePlan(parsed.data), problems: [] };
+    if (!parsed.success) {
+      return { plan: undefined, request: undefined, problems: fieldErrors(parsed.error) };
+    }
+    return { plan: computePlan(parsed.data), request: parsed.data, problems: [] };
   }, [values]);
 }

@@ -77,6 +77,22 @@ export function BatchDetail() {
       <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1 text-lg">
         <dt className="text-muted">Material</dt>
         <dd>{b.materialName}</dd>
+        {b.planId && (
+          <>
+            <dt className="text-muted">Pour plan</dt>
+            <dd>
+              <Link className="underline" to={`/plans/${b.planId}`}>
+                The plan it was poured from
+              </Link>
+            </dd>
+          </>
+        )}
+        <dt className="text-muted">Material cost</dt>
+        <dd>
+          {b.cost
+            ? `${b.cost.total.toFixed(2)} (${b.cost.parts.map((c, i) => `part ${'ABC'[i]} ${c.toFixed(2)}`).join(', ')}), as weighed`
+            : 'no price recorded for this material'}
+        </dd>
         <dt className="text-muted">Operator</dt>
         <dd>{b.operator.name}</dd>
         {b.handledBy && (
