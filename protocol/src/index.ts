@@ -14,3 +14,4 @@ export * from './scale-stability.js';
 export * from './alerts.js';
 export * from './audit.js';
 export * from './page.js';
+export * from './scale-checks.js';
