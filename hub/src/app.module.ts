@@ -16,6 +16,7 @@ import { BenchesModule } from './benches/benches.module.js';
 import { BatchesModule } from './batches/batches.module.js';
 import { LiveModule } from './live/live.module.js';
 import { ScalesModule } from './scales/scales.module.js';
+import { ScaleChecksModule } from './scale-checks/scale-checks.module.js';
 
 @Module({})
 export class AppModule {
@@ -36,6 +37,7 @@ export class AppModule {
         PeopleModule,
         DemoModule,
         BatchesModule,
+        ScaleChecksModule,
         BackupModule,
         AlertsModule,
         // The built station, with client routes falling back to index.html.

@@ -209,6 +209,11 @@ export const benchCheckStatusSchema = z.object({
   nextDueAt: z.string().nullable(),
   repeatabilitySdG: z.number().nullable(),
   repeatabilityAt: z.string().nullable(),
+  /** From the last repeatability test: the minimum net mass, g, for the band it was taken at. */
+  minNetG: z.number().nullable(),
+  minNetBandPct: z.number().nullable(),
+  /** A check is running at the bench now (its number). */
+  runningCheckId: z.number().int().nullable(),
 });
 export type BenchCheckStatus = z.infer<typeof benchCheckStatusSchema>;
 

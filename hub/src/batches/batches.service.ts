@@ -1,8 +1,9 @@
-import { Inject, Injectable, Logger } from '@nestjs/common';
+import { Inject, Injectable, Logger, Optional } from '@nestjs/common';
 import type { Batch, CreateBatch } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
+import { ScaleCheckGate } from '../scale-checks/scale-check-gate.js';
 import {
   abandon,
   BatchRefusal,
@@ -41,6 +42,10 @@ export class BatchesService {
     @Inject(BatchesRepository) private readonly store: BatchStore,
     @Inject(BenchSessions) private readonly sessions: BenchSessions,
     @Inject(MaterialsService) private readonly materials: MaterialsService,
+    /** Refuses a batch while a scale check runs or (by the bench's policy) is due. */
+    @Optional()
+    @Inject(ScaleCheckGate)
+    private readonly scaleChecks?: Pick<ScaleCheckGate, 'assertMayStartBatch'>,
   ) {}
 
   // ---- queries ---------------------------------------------------------------------------
@@ -93,6 +98,7 @@ export class BatchesService {
         `Batch ${busy.id} is still open on this bench: finish or abandon it first`,
       );
     }
+    await this.scaleChecks?.assertMayStartBatch(input.benchId);
     const material = await this.materials.get(input.materialId).catch((err: unknown) => {
       // Only a material that is not there is the operator's to fix; an outage stays an outage.
       if (!(err instanceof NotFound)) throw err;
