@@ -99,10 +99,11 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
   // ---- people's requests -------------------------------------------------------------------
 
   async start(benchId: string, body: StartScaleCheck, user: AuthUser): Promise<ScaleCheckStarted> {
-    requireChecker(user, benchId);
+    // The bench first: a bench that does not exist is a 404 to everyone.
     if (!this.scales.has(benchId) || !(await this.repository.policy(benchId))) {
       throw new NotFound(`There is no bench "${benchId}"`);
     }
+    requireChecker(user, benchId);
     if (this.gate.running.has(benchId)) {
       throw new BenchBusy('A scale check is already running at this bench: finish or cancel it');
     }
@@ -185,6 +186,7 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
   }
 
   async get(benchId: string, id: number, user: AuthUser): Promise<ScaleCheck> {
+    await this.requireBench(benchId);
     requireReader(user, benchId);
     const check = this.checks.get(id);
     // A running check is read after its pending writes, so what is shown is what is stored.
@@ -195,13 +197,14 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
   }
 
   async list(benchId: string, user: AuthUser): Promise<ScaleCheck[]> {
-    requireReader(user, benchId);
     await this.requireBench(benchId);
+    requireReader(user, benchId);
     const rows = await this.repository.list(benchId, 100);
     return rows.map((row) => this.toScaleCheck(row));
   }
 
   async cancel(benchId: string, id: number, user: AuthUser): Promise<ScaleCheck> {
+    await this.requireBench(benchId);
     requireChecker(user, benchId);
     const check = this.checks.get(id);
     if (!check || check.benchId !== benchId || check.finishing) {
@@ -215,6 +218,7 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
   }
 
   async status(benchId: string, user: AuthUser): Promise<BenchCheckStatus> {
+    await this.requireBench(benchId);
     requireReader(user, benchId);
     return this.gate.status(benchId);
   }
