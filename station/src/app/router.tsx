@@ -9,6 +9,7 @@ import {
   BatchDetail,
   BatchesPage,
   BenchScaleRoute,
+  CheckPage,
   PeoplePage,
   PlanRoute,
   ReviewRoute,
@@ -83,6 +84,15 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['lead', 'admin']}>
             <BenchScaleRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        // Scale checks are run at the bench by a lead or the operator signed in there.
+        path: 'bench/:benchId/checks',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <CheckPage />
           </RequireRole>
         ),
       },
