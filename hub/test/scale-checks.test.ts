@@ -1,11 +1,5 @@
-import type {
-  Batch,
-  BenchCheckStatus,
-  BenchSummary,
-  Material,
-  ScaleCheck,
-  SimulatorStep,
-} from '@tareline/protocol';
+import type { Batch, BenchSummary, Material, SimulatorStep } from '@tareline/protocol';
+import type { BenchCheckStatus, ScaleCheck } from '@tareline/protocol/scale-checks';
 import { std } from 'mathjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';

@@ -14,4 +14,5 @@ export * from './scale-stability.js';
 export * from './alerts.js';
 export * from './audit.js';
 export * from './page.js';
-export * from './scale-checks.js';
+// Scale checks are imported as '@tareline/protocol/scale-checks': only the pages that use them
+// load their schemas, not the bench screen's first chunk.

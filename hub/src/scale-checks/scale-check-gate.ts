@@ -1,5 +1,9 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { checkDue, SCALE_CHECK_DUE_PATH, type BenchCheckStatus } from '@tareline/protocol';
+import {
+  checkDue,
+  SCALE_CHECK_DUE_PATH,
+  type BenchCheckStatus,
+} from '@tareline/protocol/scale-checks';
 import { CLOCK, type Clock } from '../common/clock.js';
 import { BenchBusy, Conflict, NotFound } from '../common/domain-errors.js';
 import { formatGrams } from './check-words.js';

@@ -1,6 +1,6 @@
 import { Body, Controller, Get, HttpCode, Inject, Param, Patch, Post } from '@nestjs/common';
+import { benchIdSchema } from '@tareline/protocol';
 import {
-  benchIdSchema,
   benchPolicyPatchSchema,
   scaleCheckIdSchema,
   startScaleCheckSchema,
@@ -9,7 +9,7 @@ import {
   type ScaleCheck,
   type ScaleCheckStarted,
   type StartScaleCheck,
-} from '@tareline/protocol';
+} from '@tareline/protocol/scale-checks';
 import { Roles } from '../auth/access.decorator.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';

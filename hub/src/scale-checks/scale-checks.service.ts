@@ -5,6 +5,7 @@ import {
   type BeforeApplicationShutdown,
   type OnApplicationBootstrap,
 } from '@nestjs/common';
+import { type ReadingEvent, type ScaleStatusEvent } from '@tareline/protocol';
 import {
   checkToleranceG,
   judgeRoutineCheck,
@@ -12,13 +13,11 @@ import {
   REPEATABILITY_PLACEMENTS,
   type BenchCheckStatus,
   type BenchPolicyPatch,
-  type ReadingEvent,
   type ScaleCheck,
   type ScaleCheckStarted,
   type ScaleCheckStep,
-  type ScaleStatusEvent,
   type StartScaleCheck,
-} from '@tareline/protocol';
+} from '@tareline/protocol/scale-checks';
 import type { AuthUser } from '../auth/auth-user.js';
 import { BatchesService } from '../batches/batches.service.js';
 import { CLOCK, type Clock } from '../common/clock.js';

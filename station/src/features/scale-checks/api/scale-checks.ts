@@ -5,7 +5,7 @@ import {
   scaleCheckStartedSchema,
   startScaleCheckSchema,
   type StartScaleCheck,
-} from '@tareline/protocol';
+} from '@tareline/protocol/scale-checks';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { benchesQueryKey } from '../../../lib/benches';

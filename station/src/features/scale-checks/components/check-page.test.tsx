@@ -1,4 +1,4 @@
-import type { BenchCheckStatus, ScaleCheck } from '@tareline/protocol';
+import type { BenchCheckStatus, ScaleCheck } from '@tareline/protocol/scale-checks';
 import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';

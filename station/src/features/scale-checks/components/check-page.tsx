@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import type { ScaleCheck } from '@tareline/protocol';
+import type { ScaleCheck } from '@tareline/protocol/scale-checks';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useParams } from 'react-router-dom';

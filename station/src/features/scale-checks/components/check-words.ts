@@ -1,4 +1,4 @@
-import type { ScaleCheck } from '@tareline/protocol';
+import type { ScaleCheck } from '@tareline/protocol/scale-checks';
 import { gramsText } from '../../../lib/grams';
 
 /** A signed error to the scale's decimals: "+0.05 g", "−0.21 g". */
