@@ -3,11 +3,18 @@ import { useCheckStatus } from '../api/scale-checks';
 
 /**
  * What the bench says at sign-in when its scale wants a check (due, or the last one failed) or
- * its calibration date has come: in words, with the way to the check.
+ * its calibration date has come: in words, with the way to the check. Otherwise only the way.
  */
 export function CheckNotice({ benchId }: { benchId: string }) {
   const status = useCheckStatus(benchId).data;
-  if (!status || (!status.message && !status.calibrationOverdue)) return null;
+  if (!status) return null;
+  if (!status.message && !status.calibrationOverdue) {
+    return (
+      <Link to={`/bench/${encodeURIComponent(benchId)}/checks`} className="text-lg underline">
+        Check the scale with a reference weight
+      </Link>
+    );
+  }
   return (
     <div
       role="status"
