@@ -106,12 +106,7 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
     if (this.gate.running.has(benchId)) {
       throw new BenchBusy('A scale check is already running at this bench: finish or cancel it');
     }
-    const batch = this.batches.current(benchId);
-    if (batch) {
-      throw new BenchBusy(
-        `Batch ${batch.id} is open at this bench: finish or abandon it before a scale check`,
-      );
-    }
+    this.refuseOpenBatch(benchId);
     const { state } = this.scales.status(benchId);
     if (state !== 'online') {
       throw new Conflict(`The scale is ${state}: a check needs a scale that is reading`);
@@ -137,6 +132,13 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
       throw new BenchBusy('A scale check is already running at this bench: finish or cancel it');
     }
     this.gate.running.set(benchId, 0);
+    try {
+      // A batch started while the bench's policy was read keeps the bench.
+      this.refuseOpenBatch(benchId);
+    } catch (err) {
+      this.gate.running.delete(benchId);
+      throw err;
+    }
     let row: ScaleCheckRow;
     try {
       row = await this.repository.insert({
@@ -378,6 +380,16 @@ export class ScaleChecksService implements OnApplicationBootstrap, BeforeApplica
         `${check.benchId}: check ${check.id} not stored: ${err instanceof Error ? err.message : String(err)}`,
       );
     });
+  }
+
+  /** A check tares the scale: never under an open batch's cup. */
+  private refuseOpenBatch(benchId: string): void {
+    const batch = this.batches.current(benchId);
+    if (batch) {
+      throw new BenchBusy(
+        `Batch ${batch.id} is open at this bench: finish or abandon it before a scale check`,
+      );
+    }
   }
 
   private async requireBench(benchId: string): Promise<void> {
