@@ -190,9 +190,16 @@ describe('scale checks at a bench, through the simulated scale', () => {
     expect((await patch({ calibrationDueOn: '2027-02-30' })).status).toBe(400);
     expect((await patch({ blockWhenDue: 'yes' })).status).toBe(400);
     expect((await patch({ checkEveryHours: 8 }, admin, 'no-such-bench')).status).toBe(404);
-    const ok = await patch({ calibrationDueOn: '2027-03-01' });
+    const ok = await patch({ calibrationDueOn: '2027-03-01', checkToleranceG: 0.05 });
     expect(ok.status).toBe(200);
-    expect(ok.body.calibrationDueOn).toBe('2027-03-01');
+    expect(ok.body).toMatchObject({ calibrationDueOn: '2027-03-01', checkToleranceG: 0.05 });
+    // The bench's own tolerance replaces the default 0.2 g for a 200 g weight.
+    const tight = await start({ kind: 'routine', referenceG: 200 });
+    expect((await check(tight.body.id)).toleranceG).toBe(0.05);
+    await call(hub, 'POST', `/api/benches/bench-1/checks/${tight.body.id}/cancel`, {
+      token: joss,
+    });
+    expect((await patch({ checkToleranceG: null })).body.checkToleranceG).toBeNull();
   });
 
   it('with blockWhenDue, refuses a batch while a check is due and accepts one after a pass', async () => {
