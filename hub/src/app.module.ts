@@ -19,6 +19,7 @@ import { BatchesModule } from './batches/batches.module.js';
 import { LiveModule } from './live/live.module.js';
 import { ScalesModule } from './scales/scales.module.js';
 import { StockModule } from './stock/stock.module.js';
+import { ScaleChecksModule } from './scale-checks/scale-checks.module.js';
 
 @Module({})
 export class AppModule {
@@ -41,6 +42,7 @@ export class AppModule {
         PeopleModule,
         DemoModule,
         BatchesModule,
+        ScaleChecksModule,
         BackupModule,
         AlertsModule,
         StockModule,

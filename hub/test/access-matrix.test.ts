@@ -36,6 +36,14 @@ const EXPECTED: Record<string, 'public' | readonly Role[]> = {
   'GET /api/benches': EVERYONE_SIGNED_IN,
   // Pours and unplugs as a person at the bench would: signed in, at that bench for operators.
   'POST /api/benches/:id/simulator': EVERYONE_SIGNED_IN,
+  // Scale checks: the bench is looked up first (404 here), then the service refuses admins and
+  // operators of another bench a check (403, in hub/test/scale-checks.test.ts).
+  'POST /api/benches/:id/checks': EVERYONE_SIGNED_IN,
+  'GET /api/benches/:id/checks': EVERYONE_SIGNED_IN,
+  'GET /api/benches/:id/checks/:checkId': EVERYONE_SIGNED_IN,
+  'POST /api/benches/:id/checks/:checkId/cancel': EVERYONE_SIGNED_IN,
+  'GET /api/benches/:id/check-status': EVERYONE_SIGNED_IN,
+  'PATCH /api/benches/:id': ['admin'],
   'GET /api/materials': EVERYONE_SIGNED_IN,
   'GET /api/materials/:id': EVERYONE_SIGNED_IN,
   'POST /api/materials': ['lead', 'admin'],

@@ -302,6 +302,8 @@ function validBodies(f: Fixtures): Record<string, unknown> {
     },
     // Only ever aimed at a bench that does not exist (below): the fuzz pours nothing.
     'POST /api/benches/:id/simulator': [{ do: 'place-cup', massG: 40 }],
+    'POST /api/benches/:id/checks': { kind: 'routine', referenceG: 200 },
+    'PATCH /api/benches/:id': { checkEveryHours: 8, calibrationDueOn: '2027-03-01' },
     'POST /api/materials': {
       name: 'Fuzz resin',
       ratio: { basis: 'weight', parts: [100, 14] },

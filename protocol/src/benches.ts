@@ -20,6 +20,13 @@ export const benchSummarySchema = z.object({
   pinRequired: z.boolean(),
   idleSignOutMin: z.number().int().positive(),
   scale: benchScaleSchema,
+  /**
+   * The scale's repeatability s in grams from the bench's last repeatability test (ten placements
+   * of one weight; never below 0.41 d, USP General Chapter <41>); null when none was run.
+   */
+  repeatabilitySdG: z.number().nonnegative().nullable().default(null),
+  /** When that test finished (ISO 8601); null when none was run. */
+  repeatabilityAt: z.string().nullable().default(null),
 });
 export type BenchSummary = z.infer<typeof benchSummarySchema>;
 

@@ -18,3 +18,5 @@ export * from './page.js';
 export * from './cost.js';
 export * from './pour-plans.js';
 export * from './documents.js';
+// Scale checks are imported as '@tareline/protocol/scale-checks': only the pages that use them
+// load their schemas, not the bench screen's first chunk.

@@ -6,6 +6,8 @@ export const KEY_POURS = {
   b: { label: 'part B', grams: 30, rateGPerS: 2 },
 } as const;
 const CUP_G = 40;
+/** The reference weight `w` places and lifts, as for a scale check. */
+export const KEY_WEIGHT_G = 200;
 
 /** One line saying what the balance is doing, for the terminal's status display. */
 export function statusLine(scale: SimulatedScale, pouring: string | undefined): string {
@@ -16,9 +18,10 @@ export function statusLine(scale: SimulatedScale, pouring: string | undefined): 
     tare === undefined ? 'no tare' : `net ${scale.netG.toFixed(2)} g`,
     scale.stable ? 'stable' : 'moving',
     scale.cupPlaced ? 'cup on pan' : 'pan empty',
+    scale.weightPlaced ? `${KEY_WEIGHT_G} g weight on pan` : '',
     pouring ? `pouring ${pouring}` : '',
   ];
-  return `${parts.filter(Boolean).join(' | ')}   [a b s t l u q]`;
+  return `${parts.filter(Boolean).join(' | ')}   [a b s t l w u q]`;
 }
 
 /**
@@ -57,6 +60,8 @@ export function attachKeys(
         if (scale.cupPlaced) return scale.liftCup();
         if (scale.contentsInCupG > 0 || scale.tareG !== undefined) return scale.returnCup();
         return scale.placeCup(CUP_G);
+      case 'w':
+        return scale.weightPlaced ? scale.liftWeight() : scale.placeWeight(KEY_WEIGHT_G);
       case 'u':
         return scale.plugged ? scale.unplug() : scale.replug();
       case 'q':

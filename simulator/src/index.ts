@@ -2,6 +2,7 @@ export {
   DEFAULT_SIMULATOR_OPTIONS,
   SimulatedScale,
   SimulatorStoppedError,
+  type ScaleErrors,
   type SimulatorOptions,
 } from './simulated-scale.js';
 export { usage, parseArgs } from './usage.js';

@@ -83,6 +83,16 @@ const UNDERLOAD_SHARE = 0.05;
 /** Above capacity by more than this many scale intervals the balance shows overload. */
 const OVERLOAD_MARGIN_D = 9;
 
+/** The balance's own faults, as `set-scale-error` sets them (see the protocol's script step). */
+export interface ScaleErrors {
+  /** A fixed error on any load on the pan, g (zeroing does not remove it). */
+  offsetG: number;
+  /** Span error, parts per million of the load. */
+  spanPpm: number;
+  /** Standard deviation of the reading from one placement of a weight to the next, g. */
+  spreadG: number;
+}
+
 interface Pour {
   grams: number;
   rateGPerS: number;
@@ -176,6 +186,11 @@ export class SimulatedScale {
   private readonly waiters: Waiter[] = [];
   private readonly requests: PendingRequest[] = [];
   private readonly tareListeners = new Set<() => void>();
+  private weightMassG = 0;
+  private weightOnPan = false;
+  /** This placement's share of the spread, drawn when the weight lands. */
+  private placementErrorG = 0;
+  private faults: ScaleErrors = { offsetG: 0, spanPpm: 0, spreadG: 0 };
 
   constructor(options: Partial<SimulatorOptions> = {}) {
     const defined = Object.fromEntries(
@@ -351,6 +366,47 @@ export class SimulatedScale {
     this.disturb(0.2 + 0.02 * (this.cupMassG + this.contentsG));
   }
 
+  /** Put a reference weight on the pan; a weight already there is taken off first. */
+  placeWeight(massG: number): void {
+    if (!(massG > 0) || !Number.isFinite(massG)) {
+      throw new RangeError(`A reference weight must weigh more than 0 g, got ${massG}`);
+    }
+    this.weightMassG = massG;
+    this.weightOnPan = true;
+    // Only a set spread draws from the noise source, so scripts without one read as before.
+    this.placementErrorG = this.faults.spreadG > 0 ? this.random.gaussian(this.faults.spreadG) : 0;
+    this.disturb(0.2 + 0.02 * massG);
+  }
+
+  liftWeight(): void {
+    if (!this.weightOnPan) return;
+    this.weightOnPan = false;
+    this.disturb(0.1 + 0.005 * this.weightMassG);
+  }
+
+  get weightPlaced(): boolean {
+    return this.weightOnPan;
+  }
+
+  /** The balance's own faults now in effect. */
+  get scaleErrors(): Readonly<ScaleErrors> {
+    return this.faults;
+  }
+
+  /** Changes the balance's own faults; fields left out stay as they were. */
+  setScaleErrors(errors: Partial<ScaleErrors>): void {
+    const next = { ...this.faults };
+    for (const key of ['offsetG', 'spanPpm', 'spreadG'] as const) {
+      const value = errors[key];
+      if (value === undefined) continue;
+      if (!Number.isFinite(value) || (key === 'spreadG' && value < 0)) {
+        throw new RangeError(`"${key}" must be a finite number${key === 'spreadG' ? ' ≥ 0' : ''}`);
+      }
+      next[key] = value;
+    }
+    this.faults = next;
+  }
+
   /**
    * Pour `grams` into the cup at about `rateGPerS`: the flow builds up, runs, and tapers off as
    * the pourer nears the amount. Resolves when the flow has stopped (not when the reading has
@@ -435,6 +491,14 @@ export class SimulatedScale {
       }
       case 'unplug':
         return this.unplug();
+      case 'place-weight':
+        return this.placeWeight(step.massG);
+      case 'lift-weight':
+        return this.liftWeight();
+      case 'set-scale-error': {
+        const { do: _do, ...errors } = step;
+        return this.setScaleErrors(errors);
+      }
       case 'replug':
         return this.replug();
     }
@@ -517,13 +581,18 @@ export class SimulatedScale {
   }
 
   private panLoadG(): number {
+    const weightG = this.weightOnPan ? this.weightMassG + this.placementErrorG : 0;
     // Without a cup, what is poured lands straight on the pan and is counted in contentsG.
-    if (this.cupMassG === 0) return this.contentsG;
-    return this.cupOnPan ? this.cupMassG + this.contentsG : 0;
+    if (this.cupMassG === 0) return this.contentsG + weightG;
+    return (this.cupOnPan ? this.cupMassG + this.contentsG : 0) + weightG;
   }
 
   private trueGrossG(): number {
-    return this.panLoadG() + this.driftG - this.zeroOffsetG;
+    const loadG = this.panLoadG();
+    const { offsetG, spanPpm } = this.faults;
+    // The faults act on the load only: an empty pan still reads zero after zeroing.
+    const errorG = loadG > 0 ? offsetG + (loadG * spanPpm) / 1e6 : 0;
+    return loadG + errorG + this.driftG - this.zeroOffsetG;
   }
 
   private oscillationG(): number {

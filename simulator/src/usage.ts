@@ -38,7 +38,8 @@ How it behaves:
 
 Keys, in a terminal:
   a pour part A (100 g at 8 g/s)   b pour part B (30 g at 2 g/s)   s stop pouring
-  t tare   l place, lift or return the cup   u unplug or replug   q quit
+  t tare   l place, lift or return the cup   w place or lift a 200 g reference weight
+  u unplug or replug   q quit
 `;
 
 export interface CliOptions {

@@ -1,4 +1,4 @@
-import { Inject, Injectable, Logger } from '@nestjs/common';
+import { Inject, Injectable, Logger, Optional } from '@nestjs/common';
 import {
   costPerKgOf,
   overdrawWarning,
@@ -11,6 +11,7 @@ import type { AuthUser } from '../auth/auth-user.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
 import { PourPlansService } from '../pour-plans/pour-plans.service.js';
+import { ScaleCheckGate } from '../scale-checks/scale-check-gate.js';
 import {
   abandon,
   BatchRefusal,
@@ -50,6 +51,10 @@ export class BatchesService {
     @Inject(BenchSessions) private readonly sessions: BenchSessions,
     @Inject(MaterialsService) private readonly materials: MaterialsService,
     @Inject(PourPlansService) private readonly plans: PourPlansService,
+    /** Refuses a batch while a scale check runs or (by the bench's policy) is due. */
+    @Optional()
+    @Inject(ScaleCheckGate)
+    private readonly scaleChecks?: Pick<ScaleCheckGate, 'assertMayStartBatch'>,
   ) {}
 
   // ---- queries ---------------------------------------------------------------------------
@@ -110,6 +115,7 @@ export class BatchesService {
         `Batch ${busy.id} is still open on this bench: finish or abandon it first`,
       );
     }
+    await this.scaleChecks?.assertMayStartBatch(input.benchId);
     const material = await this.materials.get(input.materialId).catch((err: unknown) => {
       // Only a material that is not there is the operator's to fix; an outage stays an outage.
       if (!(err instanceof NotFound)) throw err;

@@ -105,6 +105,8 @@ export class BenchesService implements OnApplicationBootstrap {
           name: row.name,
           pinRequired: row.pinRequired,
           idleSignOutMin: row.idleSignOutMin,
+          repeatabilitySdG: row.repeatabilitySdG,
+          repeatabilityAt: row.repeatabilityAt?.toISOString() ?? null,
           scale: {
             ...this.scales.status(row.id),
             readabilityG: this.scales.readabilityG(row.id),

@@ -28,6 +28,21 @@ export const simulatorStepSchema = z.discriminatedUnion('do', [
   z.object({ do: z.literal('wait'), seconds: z.number().finite().nonnegative().max(3600) }),
   /** Pull the balance's cable: no lines until `replug`. */
   z.object({ do: z.literal('unplug') }),
+  /** Put a reference weight of this mass on the pan (beside any cup), as for a scale check. */
+  z.object({ do: z.literal('place-weight'), massG: grams.max(100_000) }),
+  /** Take the reference weight off the pan. */
+  z.object({ do: z.literal('lift-weight') }),
+  /**
+   * The balance's own faults, so a scale check can fail on purpose: a fixed error on any load
+   * (g), a span error (parts per million of the load), and the spread of the reading from one
+   * placement to the next (standard deviation, g). Fields left out are unchanged.
+   */
+  z.object({
+    do: z.literal('set-scale-error'),
+    offsetG: z.number().finite().min(-1000).max(1000).optional(),
+    spanPpm: z.number().finite().min(-100_000).max(100_000).optional(),
+    spreadG: z.number().finite().nonnegative().max(1000).optional(),
+  }),
   z.object({ do: z.literal('replug') }),
 ]);
 export type SimulatorStep = z.infer<typeof simulatorStepSchema>;

@@ -58,3 +58,14 @@ export const MaterialDocumentsPage = lazy(() =>
     default: m.MaterialDocumentsPage,
   })),
 );
+export const CheckPage = lazy(() =>
+  import('../features/scale-checks/components/check-page').then((m) => ({
+    default: m.CheckPage,
+  })),
+);
+/** Shown at sign-in only when a check is due: not worth the bench's first paint. */
+export const CheckNotice = lazy(() =>
+  import('../features/scale-checks/components/check-notice').then((m) => ({
+    default: m.CheckNotice,
+  })),
+);

@@ -12,6 +12,7 @@ import {
   BenchScaleRoute,
   MaterialsPage,
   MaterialDocumentsPage,
+  CheckPage,
   PeoplePage,
   PlanEditorRoute,
   PlanPage,
@@ -146,6 +147,15 @@ export const routes: RouteObject[] = [
         element: (
           <RequireRole roles={['lead', 'admin']}>
             <BenchScaleRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        // Scale checks are run at the bench by a lead or the operator signed in there.
+        path: 'bench/:benchId/checks',
+        element: (
+          <RequireRole roles={['operator', 'lead', 'admin']}>
+            <CheckPage />
           </RequireRole>
         ),
       },

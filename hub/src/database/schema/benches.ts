@@ -1,4 +1,12 @@
-import { boolean, integer, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
+import {
+  boolean,
+  date,
+  doublePrecision,
+  integer,
+  pgTable,
+  text,
+  timestamp,
+} from 'drizzle-orm/pg-core';
 
 /** A mixing bench: one scale, one shared screen. */
 export const benches = pgTable('benches', {
@@ -15,5 +23,17 @@ export const benches = pgTable('benches', {
   /** Minutes without a touch before the bench signs its operator out. */
   idleSignOutMin: integer('idle_sign_out_min').notNull().default(5),
   active: boolean('active').notNull().default(true),
+  /** Hours a passed scale check stays good; null: no routine checks asked of this bench. */
+  checkEveryHours: integer('check_every_hours'),
+  /** While a check is due or the last one failed, no batch starts at this bench. */
+  blockWhenDue: boolean('block_when_due').notNull().default(false),
+  /** Routine check tolerance in grams; null: the default, max(0.1 % of reference, 2 d). */
+  checkToleranceG: doublePrecision('check_tolerance_g'),
+  /** When the scale's next calibration (by whoever calibrates it) is due, as entered. */
+  calibrationDueOn: date('calibration_due_on', { mode: 'string' }),
+  /** Repeatability s in grams from the last repeatability test (already floored at 0.41 d). */
+  repeatabilitySdG: doublePrecision('repeatability_sd_g'),
+  /** When that repeatability test finished. */
+  repeatabilityAt: timestamp('repeatability_at', { withTimezone: true }),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });

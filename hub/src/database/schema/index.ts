@@ -9,3 +9,4 @@ export * from './audit.js';
 export * from './accuracy.js';
 export * from './pour-plans.js';
 export * from './documents.js';
+export * from './scale-checks.js';

@@ -5,7 +5,7 @@ import { PotLifeReminder } from '../../features/batch/components/pot-life-remind
 import { useBenches } from '../../lib/benches';
 import { SimulatorPanel } from '../../features/simulator/components/simulator-panel';
 import { useSession } from '../../lib/auth';
-import { VolumeEstimator } from '../lazy-pages';
+import { CheckNotice, VolumeEstimator } from '../lazy-pages';
 
 /** The planner's volume estimator inside the bench flow's amount step, loaded when opened. */
 function BenchEstimator(props: ComponentProps<typeof VolumeEstimator>) {
@@ -30,6 +30,12 @@ export function BenchHomeRoute() {
       <h1 id="bench-title" className="sr-only">
         Bench
       </h1>
+      {benchId && (
+        // Says so at sign-in when a scale check is due or the last one failed.
+        <Suspense fallback={null}>
+          <CheckNotice benchId={benchId} />
+        </Suspense>
+      )}
       {benchId ? (
         <BenchFlow key={benchId} benchId={benchId} estimator={BenchEstimator} />
       ) : (

@@ -1,8 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { SimulatorStep } from '@tareline/protocol';
+import { lazy, Suspense } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { useRunSimulator } from '../api/run-simulator';
+
+// Scale-check practice is rare at the bench: its controls load when the panel is drawn.
+const ReferenceWeightControls = lazy(() =>
+  import('./reference-weight-controls').then((m) => ({ default: m.ReferenceWeightControls })),
+);
 
 const button =
   'min-h-14 rounded-xl border-2 border-steel px-4 text-lg font-semibold disabled:opacity-50';
@@ -102,6 +108,9 @@ export function SimulatorPanel({ benchId }: { benchId: string }) {
           </p>
         )}
       </form>
+      <Suspense fallback={null}>
+        <ReferenceWeightControls benchId={benchId} />
+      </Suspense>
       {run.isPending && <p className="mt-2 text-muted">The simulator is busy…</p>}
       {run.isError && (
         <p role="alert" className="mt-2 text-over">
