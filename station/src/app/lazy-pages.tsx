@@ -34,3 +34,9 @@ export const VolumeEstimator = lazy(() =>
 export const AlertsPage = lazy(() =>
   import('../features/alerts/components/alerts-page').then((m) => ({ default: m.AlertsPage })),
 );
+// A demo and training aid, folded below the bench flow: not needed for the first paint.
+export const SimulatorPanel = lazy(() =>
+  import('../features/simulator/components/simulator-panel').then((m) => ({
+    default: m.SimulatorPanel,
+  })),
+);

@@ -1,8 +1,13 @@
 import type { Batch, Material } from '@tareline/protocol';
-import { useEffect } from 'react';
+import { lazy, Suspense, useEffect } from 'react';
 import { rememberLastPoured } from '../utils/last-poured';
-import { SavedBatch } from './after-save/saved-batch';
 import { primaryButton } from './buttons';
+
+// What follows a save (pot life, mixing steps, the cup label and its QR code library) is not
+// needed for the bench's first paint: it loads while the operator pours.
+const SavedBatch = lazy(() =>
+  import('./after-save/saved-batch').then((m) => ({ default: m.SavedBatch })),
+);
 
 /**
  * Step 6: what the hub committed. Only ever shown for a batch the hub itself says is saved (or
@@ -30,7 +35,15 @@ export function FinishedStep({
       {batch.state === 'saved' ? (
         // SavedBatch opens with the batch number and the hub's verdict.
         material ? (
-          <SavedBatch batch={batch} material={material} />
+          <Suspense
+            fallback={
+              <p role="status" className="text-3xl font-bold">
+                Batch {batch.id} saved
+              </p>
+            }
+          >
+            <SavedBatch batch={batch} material={material} />
+          </Suspense>
         ) : (
           <p role="status" className="text-3xl font-bold">
             Batch {batch.id} saved
