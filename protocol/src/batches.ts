@@ -132,7 +132,10 @@ export const activePourSchema = z.object({
   kind: z.enum(['first', 'top-up']),
   /** Net grams to pour now (on a freshly tared scale). */
   targetG: z.number(),
-  /** The band the net reading must end in; null for part A, which sets the scale of the rest. */
+  /**
+   * The band the net reading must end in. Part A's own pour has one as advice (it sets the scale
+   * of the rest); null only on records written before part A had a band.
+   */
   band: z.object({ lowG: z.number(), highG: z.number() }).nullable(),
   /** Net grams from which the gauge shows the slow-down zone. */
   slowDownFromG: z.number(),
