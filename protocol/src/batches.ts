@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { loginRequestSchema } from './auth.js';
 import { benchIdSchema } from './benches.js';
 import { lotWarningSchema, materialIdSchema } from './materials.js';
 import { roleSchema } from './roles.js';
@@ -47,8 +48,20 @@ export const createBatchSchema = z.object({
     )
     .max(3)
     .default([]),
+  /**
+   * A lead's e-mail and password, to start a batch whose parts are below what the bench's scale
+   * weighs within the band (refused otherwise with {@link SCALE_TOO_COARSE_PATH}).
+   */
+  override: loginRequestSchema.optional(),
 });
 export type CreateBatch = z.input<typeof createBatchSchema>;
+export type CreateBatchBody = z.output<typeof createBatchSchema>;
+
+/**
+ * The `path` of the 409 that refuses a batch too small for the bench's scale: some part's target
+ * is below the scale's minimum net mass for the band. A lead's override lets it start.
+ */
+export const SCALE_TOO_COARSE_PATH = 'SCALE_TOO_COARSE';
 
 export const abandonBatchSchema = z.object({
   reason: text({ error: 'Say why the batch is abandoned', multiline: true })
@@ -198,6 +211,16 @@ export const batchSchema = z.object({
    */
   handledBy: z
     .array(z.object({ id: z.string(), name: z.string(), role: roleSchema, at: z.string() }))
+    .optional(),
+  /** The lead who let this batch start on a scale too coarse for it; absent when none did. */
+  scaleOverride: z
+    .object({
+      by: z.object({ id: z.string(), name: z.string() }),
+      at: z.string(),
+      /** The scale's minimum net mass for the band, g, and the smallest batch it could weigh. */
+      minNetG: z.number(),
+      smallestBatchG: z.number(),
+    })
     .optional(),
   totalMassG: z.number(),
   weightRatio: z.array(z.number()),

@@ -58,7 +58,13 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     runner = new BatchRunner(sessions, scales, events, clock, {
       batches: { saveDwellMs: DWELL_MS },
     });
-    service = new BatchesService(store, sessions, materials);
+    service = new BatchesService(
+      store,
+      sessions,
+      materials,
+      { confirmLead: () => Promise.reject(new Error('no lead in these tests')) },
+      { record: () => Promise.reject(new Error('no audit in these tests')) },
+    );
     await runner.onApplicationBootstrap();
   }
 

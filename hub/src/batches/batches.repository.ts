@@ -32,6 +32,7 @@ export type BatchDetail = Pick<
   /** Gross on the balance when the active pour was tared (the cup and earlier parts). */
   tareGrossG?: number;
   noGoReason?: string | null;
+  scaleOverride?: NonNullable<Batch['scaleOverride']>;
 };
 
 export const detailOf = (row: BatchRow): BatchDetail => row.detail as BatchDetail;
@@ -63,7 +64,10 @@ export function recordOf(row: BatchRow): BatchRecord {
 /** A record's working data for the `detail` column, keeping what only the row knows. */
 export function detailFor(
   rec: BatchRecord,
-  keep: Pick<BatchDetail, 'potLifeMin' | 'potLifeMassG' | 'handledBy' | 'tareLost' | 'tareGrossG'>,
+  keep: Pick<
+    BatchDetail,
+    'potLifeMin' | 'potLifeMassG' | 'handledBy' | 'tareLost' | 'tareGrossG' | 'scaleOverride'
+  >,
 ): BatchDetail {
   return {
     parts: rec.parts,
@@ -77,6 +81,7 @@ export function detailFor(
     ...(keep.handledBy ? { handledBy: keep.handledBy } : {}),
     ...(keep.tareLost ? { tareLost: true } : {}),
     ...(keep.tareGrossG !== undefined ? { tareGrossG: keep.tareGrossG } : {}),
+    ...(keep.scaleOverride ? { scaleOverride: keep.scaleOverride } : {}),
     ...(rec.noGoReason ? { noGoReason: rec.noGoReason } : {}),
   };
 }
@@ -93,6 +98,7 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     materialName: row.materialName,
     operator: { id: row.operatorId, name: row.operatorName },
     ...(d.handledBy?.length ? { handledBy: d.handledBy } : {}),
+    ...(d.scaleOverride ? { scaleOverride: d.scaleOverride } : {}),
     totalMassG: rec.totalMassG,
     weightRatio: rec.weightRatio,
     parts: rec.parts,

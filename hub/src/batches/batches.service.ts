@@ -1,6 +1,14 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
-import type { Batch, CreateBatch } from '@tareline/protocol';
+import {
+  batchFitness,
+  PART_NAMES,
+  SCALE_TOO_COARSE_PATH,
+  type Batch,
+  type CreateBatchBody,
+} from '@tareline/protocol';
+import { AuditRepository } from '../audit/audit.repository.js';
 import type { AuthUser } from '../auth/auth-user.js';
+import { SignInService } from '../auth/sign-in.service.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
 import {
@@ -41,6 +49,8 @@ export class BatchesService {
     @Inject(BatchesRepository) private readonly store: BatchStore,
     @Inject(BenchSessions) private readonly sessions: BenchSessions,
     @Inject(MaterialsService) private readonly materials: MaterialsService,
+    @Inject(SignInService) private readonly signIn: Pick<SignInService, 'confirmLead'>,
+    @Inject(AuditRepository) private readonly audit: Pick<AuditRepository, 'record'>,
   ) {}
 
   // ---- queries ---------------------------------------------------------------------------
@@ -80,7 +90,7 @@ export class BatchesService {
 
   // ---- operator intents --------------------------------------------------------------------
 
-  async create(input: Required<CreateBatch>, user: AuthUser): Promise<Batch> {
+  async create(input: CreateBatchBody, user: AuthUser): Promise<Batch> {
     requireBenchAccess(user, input.benchId);
     if (!this.sessions.hasBench(input.benchId)) {
       throw new NotFound(`No bench ${input.benchId}`, [
@@ -127,6 +137,7 @@ export class BatchesService {
             ],
       });
     }
+    const scaleOverride = await this.checkScaleFitness(input, material, user);
     const rec = startBatch({
       weightRatio: material.weightRatio,
       partLabels: material.partLabels,
@@ -139,6 +150,12 @@ export class BatchesService {
     const detail = detailFor(rec, {
       potLifeMin: material.potLifeMin ?? null,
       potLifeMassG: material.potLifeMassG ?? null,
+      ...(scaleOverride
+        ? {
+            scaleOverride,
+            handledBy: [{ ...scaleOverride.by, role: 'lead' as const, at: scaleOverride.at }],
+          }
+        : {}),
     });
     const row = await this.store.insert({
       benchId: input.benchId,
@@ -156,6 +173,70 @@ export class BatchesService {
     const session = this.sessions.open(row);
     this.logger.log(`Batch ${row.id} started on ${input.benchId} by ${user.name}`);
     return toBatch(session.row, session.rec);
+  }
+
+  /**
+   * Refuses a batch whose smallest part is below what the bench's scale weighs within the band
+   * (USP General Chapter <41>, coverage 2: `batchFitness`), naming the smallest batch it can
+   * weigh, unless a lead's e-mail and password come with it. An accepted override is audited
+   * before the batch is stored, and kept with the batch.
+   */
+  private async checkScaleFitness(
+    input: CreateBatchBody,
+    material: { name: string; weightRatio: number[]; partLabels: string[]; tolerancePct: number },
+    user: AuthUser,
+  ): Promise<NonNullable<Batch['scaleOverride']> | undefined> {
+    const fit = batchFitness({
+      weightRatio: material.weightRatio,
+      totalMassG: input.totalMassG,
+      tolerancePct: material.tolerancePct,
+      readabilityG: this.sessions.readabilityG(input.benchId),
+      // The bench's measured repeatability goes here once benches carry one.
+      repeatabilitySdG: this.sessions.repeatabilitySdG(input.benchId),
+    });
+    const short = fit.tooSmall[0];
+    if (!short) return undefined;
+    const g = (v: number) => `${Number(v.toFixed(3))} g`;
+    const part = `Part ${PART_NAMES[short.part]}`;
+    const why =
+      `${part} would be ${g(short.targetG)}, below the ${g(fit.minNetG)} this scale weighs within ` +
+      `±${material.tolerancePct} %: the smallest batch it can weigh is ${g(fit.smallestBatchG)}`;
+    if (!input.override) {
+      throw new Conflict(`${why}. Make a larger batch, or ask a lead to allow it`, [
+        { path: SCALE_TOO_COARSE_PATH, message: why },
+      ]);
+    }
+    const lead = await this.signIn.confirmLead(input.override, 'a batch too small for this scale');
+    const at = this.sessions.nowIso();
+    const override = {
+      by: { id: lead.id, name: lead.name },
+      at,
+      minNetG: fit.minNetG,
+      smallestBatchG: fit.smallestBatchG,
+    };
+    await this.audit.record(
+      async () => undefined,
+      () => ({
+        at,
+        actor: { id: lead.id, name: lead.name },
+        entity: 'bench',
+        entityId: input.benchId,
+        action: 'scale-fitness.override',
+        data: {
+          operator: { id: user.id, name: user.name },
+          materialId: input.materialId,
+          totalMassG: input.totalMassG,
+          part: short.part,
+          targetG: short.targetG,
+          minNetG: fit.minNetG,
+          smallestBatchG: fit.smallestBatchG,
+        },
+      }),
+    );
+    this.logger.log(
+      `${lead.name} allowed a ${input.totalMassG} g batch on ${input.benchId}: ${why}`,
+    );
+    return override;
   }
 
   /** Tares the scale for the active pour (the empty lined cup, or the cup with earlier parts). */

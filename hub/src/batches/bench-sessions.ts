@@ -244,6 +244,14 @@ export class BenchSessions {
     return this.scales.readabilityG(benchId);
   }
 
+  /**
+   * The bench's measured repeatability (sample standard deviation, g); null while none has been
+   * measured, and the scale fitness then falls back to 0.41 d (USP <41>).
+   */
+  repeatabilitySdG(_benchId: string): number | null {
+    return null;
+  }
+
   latest(benchId: string): ReadingEvent | undefined {
     return this.scales.has(benchId) ? this.scales.latest(benchId) : undefined;
   }
