@@ -6,11 +6,13 @@ import {
   type PlanRequestInput,
 } from '@tareline/protocol';
 import { useMemo, useState, type ComponentType } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { asNumber, NumberField } from '../../../components/form/field';
 import { useBenches } from '../../../lib/benches';
+import { benchFitness } from '../utils/scale-fitness';
 import { primaryButton, secondaryButton } from './buttons';
+import { ScaleFitnessWarning } from './scale-fitness-warning';
 
 const amountSchema = z.object({ totalMassG: createBatchSchema.shape.totalMassG });
 type AmountForm = z.input<typeof amountSchema>;
@@ -45,13 +47,17 @@ export function AmountStep({
     register,
     handleSubmit,
     setValue,
+    control,
     formState: { errors },
   } = useForm<AmountForm>({
     resolver: zodResolver(amountSchema),
     defaultValues: initialG === undefined ? {} : { totalMassG: initialG },
   });
   const benches = useBenches();
-  const scale = benches.data?.find((b) => b.id === benchId)?.scale;
+  const bench = benches.data?.find((b) => b.id === benchId);
+  const scale = bench?.scale;
+  const typed = useWatch({ control, name: 'totalMassG' });
+  const fitness = benchFitness(material, typeof typed === 'number' ? typed : undefined, bench);
   const planMaterial = useMemo<PlanMaterial>(
     () => ({
       ratio: material.ratio,
@@ -101,6 +107,13 @@ export function AmountStep({
           {estimating ? 'Close the volume estimator' : 'Work it out from the mold'}
         </button>
       </form>
+      {fitness && fitness.tooSmall.length > 0 && (
+        <ScaleFitnessWarning
+          fitness={fitness}
+          material={material}
+          onUseSmallest={(g) => setValue('totalMassG', g, { shouldValidate: true })}
+        />
+      )}
       {estimating && (
         <VolumeEstimator
           material={planMaterial}

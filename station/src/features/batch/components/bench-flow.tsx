@@ -129,7 +129,7 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
         material={chosen}
         starting={create.isPending}
         startError={create.error}
-        onStart={() =>
+        onStart={(override) =>
           create.mutate({
             benchId,
             materialId: chosen.id,
@@ -137,6 +137,7 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
             lots: Object.entries(draft.lots)
               .filter(([, code]) => code.trim() !== '')
               .map(([part, code]) => ({ part: Number(part), code: code.trim() })),
+            ...(override ? { override } : {}),
           })
         }
       />
