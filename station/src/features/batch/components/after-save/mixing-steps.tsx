@@ -11,7 +11,25 @@ interface Step {
  * mixing time or method comes first. (A material's `agitateMin` is not a mixing time: it is for
  * stirring a settled part in its own can before weighing.)
  */
-function mixingSteps(partCount: number): Step[] {
+function mixingSteps(partCount: number, verdict: 'GO' | 'NO-GO' | null): Step[] {
+  if (verdict === 'NO-GO') {
+    // A NO-GO cup is not poured: a lead decides what happens to it.
+    return [
+      {
+        title: 'Keep the cup apart',
+        detail: 'Set it aside, away from the cups to pour, with its label on it.',
+      },
+      {
+        title: 'Tell a lead',
+        detail: 'The lead decides whether it is scrapped or used elsewhere; it is on their list.',
+      },
+      {
+        title: 'Do not pour it into the mold',
+        detail:
+          'Off-ratio material may never fully cure. Dispose of it as the SDS says if told to.',
+      },
+    ];
+  }
   const parts = partCount > 2 ? 'part A, part B and part C' : 'part A and part B';
   return [
     {
@@ -37,8 +55,14 @@ function mixingSteps(partCount: number): Step[] {
 }
 
 /** The mixing steps as a checklist the operator ticks off with a gloved finger. */
-export function MixingSteps({ partCount }: { partCount: number }) {
-  const steps = mixingSteps(partCount);
+export function MixingSteps({
+  partCount,
+  verdict = null,
+}: {
+  partCount: number;
+  verdict?: 'GO' | 'NO-GO' | null;
+}) {
+  const steps = mixingSteps(partCount, verdict);
   const [done, setDone] = useState<boolean[]>(() => steps.map(() => false));
   const doneCount = done.filter(Boolean).length;
   const toggle = (index: number) =>
@@ -48,7 +72,7 @@ export function MixingSteps({ partCount }: { partCount: number }) {
     <section aria-labelledby="mixing-title" className="space-y-3 rounded-xl bg-panel p-6">
       <div className="flex items-baseline justify-between gap-4">
         <h3 id="mixing-title" className="text-2xl font-bold">
-          Mixing steps
+          {verdict === 'NO-GO' ? 'What to do with this cup' : 'Mixing steps'}
         </h3>
         <p className="text-xl text-muted" aria-live="polite">
           {doneCount === steps.length ? 'All done' : `${doneCount} of ${steps.length} done`}

@@ -54,7 +54,7 @@ export function SavedBatch({ batch, material }: SavedBatchProps) {
             </div>
           </section>
         </div>
-        <MixingSteps partCount={batch.parts.length} />
+        <MixingSteps partCount={batch.parts.length} verdict={batch.verdict} />
       </div>
       <SafetyNotes cautions={material.cautions} sdsRef={material.sdsRef} />
     </section>
