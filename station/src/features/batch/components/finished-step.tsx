@@ -24,31 +24,35 @@ export function FinishedStep({
 }) {
   // The cup outlives this screen: keep its pot life for the signed-out bench.
   useEffect(() => rememberLastPoured(batch.benchId, batch), [batch]);
+  const next = (
+    <button type="button" onClick={onNext} className={primaryButton}>
+      Next batch
+    </button>
+  );
+  if (batch.state === 'saved' && material) {
+    // SavedBatch opens with the batch number, the hub's verdict and the way on.
+    return (
+      <Suspense
+        fallback={
+          <div className="flex items-center justify-between gap-4">
+            <p role="status" className="text-3xl font-bold">
+              Batch {batch.id} saved
+            </p>
+            {next}
+          </div>
+        }
+      >
+        <SavedBatch batch={batch} material={material} action={next} />
+      </Suspense>
+    );
+  }
   return (
     <div className="flex flex-col gap-6">
-      {/* At the top: the saved page is long (pot life, label, steps) and this is the way on. */}
-      <div className="flex justify-end">
-        <button type="button" onClick={onNext} className={primaryButton}>
-          Next batch
-        </button>
-      </div>
+      <div className="flex justify-end">{next}</div>
       {batch.state === 'saved' ? (
-        // SavedBatch opens with the batch number and the hub's verdict.
-        material ? (
-          <Suspense
-            fallback={
-              <p role="status" className="text-3xl font-bold">
-                Batch {batch.id} saved
-              </p>
-            }
-          >
-            <SavedBatch batch={batch} material={material} />
-          </Suspense>
-        ) : (
-          <p role="status" className="text-3xl font-bold">
-            Batch {batch.id} saved
-          </p>
-        )
+        <p role="status" className="text-3xl font-bold">
+          Batch {batch.id} saved
+        </p>
       ) : (
         <p
           role="status"

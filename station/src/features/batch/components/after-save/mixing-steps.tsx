@@ -69,7 +69,7 @@ export function MixingSteps({
     setDone((was) => was.map((value, i) => (i === index ? !value : value)));
 
   return (
-    <section aria-labelledby="mixing-title" className="space-y-3 rounded-xl bg-panel p-6">
+    <section aria-labelledby="mixing-title" className="space-y-2 rounded-xl bg-panel p-4">
       <div className="flex items-baseline justify-between gap-4">
         <h3 id="mixing-title" className="text-2xl font-bold">
           {verdict === 'NO-GO' ? 'What to do with this cup' : 'Mixing steps'}
@@ -78,11 +78,11 @@ export function MixingSteps({
           {doneCount === steps.length ? 'All done' : `${doneCount} of ${steps.length} done`}
         </p>
       </div>
-      <ol className="space-y-3">
+      <ol className="space-y-2">
         {steps.map((step, index) => (
           <li key={step.title}>
             <label
-              className={`flex min-h-20 cursor-pointer items-center gap-5 rounded-lg border-2 px-5 py-3 ${done[index] ? 'border-go' : 'border-line'}`}
+              className={`flex min-h-14 cursor-pointer items-center gap-4 rounded-lg border-2 px-3 py-1 ${done[index] ? 'border-go' : 'border-line'}`}
             >
               <input
                 type="checkbox"
@@ -93,10 +93,13 @@ export function MixingSteps({
                 className="h-10 w-10 shrink-0 accent-go"
               />
               <span>
-                <span id={`mix-step-${index}`} className="block text-2xl font-bold">
+                <span id={`mix-step-${index}`} className="block text-xl font-bold">
                   {index + 1}. {step.title}
                 </span>
-                <span id={`mix-step-${index}-detail`} className="block text-lg text-muted">
+                <span
+                  id={`mix-step-${index}-detail`}
+                  className="block text-sm leading-snug text-muted"
+                >
                   {step.detail}
                 </span>
               </span>
