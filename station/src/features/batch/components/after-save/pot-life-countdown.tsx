@@ -57,7 +57,7 @@ function Countdown({ endsAt, potLifeMin }: { endsAt: Date; potLifeMin: number })
       <p
         role="timer"
         aria-label="Pot life left"
-        className="text-[4.75rem] leading-none font-bold tabular-nums"
+        className="text-[4rem] leading-none font-bold tabular-nums"
       >
         {formatCountdown(left)}
       </p>

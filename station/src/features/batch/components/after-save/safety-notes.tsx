@@ -16,7 +16,7 @@ export function SafetyNotes({ cautions, sdsRef }: { cautions: string[]; sdsRef?:
         the batch is safe.
       </p>
       <details>
-        <summary className="flex min-h-10 cursor-pointer items-center text-lg font-semibold">
+        <summary className="flex min-h-14 cursor-pointer items-center text-lg font-semibold">
           All the cautions
         </summary>
         <ul className="list-disc space-y-1 pl-6 text-base">
