@@ -229,10 +229,19 @@ describe('pour plans', () => {
       .from(batches)
       .where(sql`${batches.planId} is not null`);
     const before = await call<Batch>(hub, 'GET', `/api/batches/${row!.id}`, { token: lead });
-    // The demo material records no prices: no cost, rather than a free batch.
-    expect(before.body.cost).toBeNull();
+    // Priced at its material's prices per kg of each part when it started.
+    const material = await call<Material>(hub, 'GET', `/api/materials/${before.body.materialId}`, {
+      token: lead,
+    });
+    const prices = material.body.costPerKg!;
+    expect(prices.length).toBe(before.body.parts.length);
+    const atStart = before.body.parts.reduce(
+      (sum, p, i) => sum + (p.actualG! / 1000) * prices[i]!,
+      0,
+    );
+    expect(before.body.cost!.total).toBeCloseTo(atStart, 9);
 
-    // Prices as the batch would have kept them from its material: 24.00 and 31.50 per kg.
+    // Prices the batch keeps are its own: a later price change does not reprice it.
     await db
       .update(batches)
       .set({ detail: sql`${batches.detail} || '{"costPerKg":[24,31.5]}'::jsonb` })

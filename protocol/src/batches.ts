@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { loginRequestSchema } from './auth.js';
 import { benchIdSchema } from './benches.js';
 import { batchCostSchema } from './cost.js';
 import { lotWarningSchema, materialIdSchema } from './materials.js';
@@ -56,6 +57,11 @@ export const createBatchSchema = z
       )
       .max(3)
       .default([]),
+    /**
+     * A lead's e-mail and password, to start a batch whose parts are below what the bench's scale
+     * weighs within the band (refused otherwise with {@link SCALE_TOO_COARSE_PATH}).
+     */
+    override: loginRequestSchema.optional(),
   })
   .superRefine((b, ctx) => {
     if (b.planId !== undefined) {
@@ -78,6 +84,13 @@ export const createBatchSchema = z
     }
   });
 export type CreateBatch = z.input<typeof createBatchSchema>;
+export type CreateBatchBody = z.output<typeof createBatchSchema>;
+
+/**
+ * The `path` of the 409 that refuses a batch too small for the bench's scale: some part's target
+ * is below the scale's minimum net mass for the band. A lead's override lets it start.
+ */
+export const SCALE_TOO_COARSE_PATH = 'SCALE_TOO_COARSE';
 
 export const abandonBatchSchema = z.object({
   reason: text({ error: 'Say why the batch is abandoned', multiline: true })
@@ -161,7 +174,10 @@ export const activePourSchema = z.object({
   kind: z.enum(['first', 'top-up']),
   /** Net grams to pour now (on a freshly tared scale). */
   targetG: z.number(),
-  /** The band the net reading must end in; null for part A, which sets the scale of the rest. */
+  /**
+   * The band the net reading must end in. Part A's own pour has one as advice (it sets the scale
+   * of the rest); null only on records written before part A had a band.
+   */
   band: z.object({ lowG: z.number(), highG: z.number() }).nullable(),
   /** Net grams from which the gauge shows the slow-down zone. */
   slowDownFromG: z.number(),
@@ -226,6 +242,16 @@ export const batchSchema = z.object({
    */
   handledBy: z
     .array(z.object({ id: z.string(), name: z.string(), role: roleSchema, at: z.string() }))
+    .optional(),
+  /** The lead who let this batch start on a scale too coarse for it; absent when none did. */
+  scaleOverride: z
+    .object({
+      by: z.object({ id: z.string(), name: z.string() }),
+      at: z.string(),
+      /** The scale's minimum net mass for the band, g, and the smallest batch it could weigh. */
+      minNetG: z.number(),
+      smallestBatchG: z.number(),
+    })
     .optional(),
   totalMassG: z.number(),
   weightRatio: z.array(z.number()),

@@ -82,6 +82,31 @@ export class SignInService {
     }
   }
 
+  /**
+   * A lead's e-mail and password given at someone else's screen, to let something through that
+   * needs a lead (a batch too small for the bench's scale). A wrong pair is refused like a wrong
+   * sign-in; a right one from someone who is not a lead is refused as not theirs to give.
+   */
+  async confirmLead(
+    credentials: LoginRequest,
+    what: string,
+  ): Promise<{ id: string; name: string; role: PersonRow['role'] }> {
+    const person = await this.people.findByEmail(credentials.email);
+    const ok = await this.hasher.verifySecret(credentials.password, person?.passwordHash);
+    if (!ok || !person) {
+      throw new NotSignedIn(`${NOT_RECOGNISED_LOGIN}: ${what} is not allowed`, [
+        { path: 'override.password', message: NOT_RECOGNISED_LOGIN },
+      ]);
+    }
+    if (!person.active) throw new NotAllowed(SWITCHED_OFF);
+    if (person.role !== 'lead' && person.role !== 'admin') {
+      throw new NotAllowed(`Only a lead can allow this: ${what} is not allowed`, [
+        { path: 'override.email', message: 'Ask a lead to enter their own e-mail and password' },
+      ]);
+    }
+    return { id: person.id, name: person.name, role: person.role };
+  }
+
   async me(user: AuthUser): Promise<MeResponse> {
     const bench = user.benchId ? await this.signIns.findBench(user.benchId) : undefined;
     return {

@@ -5,7 +5,9 @@ import {
   confirmPour,
   interrupt,
   judge,
+  judgeSteady,
   markTared,
+  type HeldZone,
   resume,
   saveNoGo,
   startBatch,
@@ -53,7 +55,21 @@ describe('batch state machine: the normal path', () => {
     expect(rec.state).toBe('weighing-a');
     // 114 g at 100:14 → 100 g + 14 g (arithmetic of parts by weight).
     expect(rec.parts.map((p) => p.targetG)).toEqual([100, 14]);
-    expect(rec.active).toMatchObject({ part: 0, kind: 'first', band: null, tared: false });
+    // Part A has a band too, ±1 % of 100 g → 99–101 g, shown as advice.
+    expect(rec.active).toMatchObject({ part: 0, kind: 'first', tared: false });
+    expect(rec.active!.band!.lowG).toBeCloseTo(99, 10);
+    expect(rec.active!.band!.highG).toBeCloseTo(101, 10);
+  });
+
+  it('gives part A a verdict but accepts it outside its band, and never while it moves', () => {
+    const tared = markTared(epoxy(), T0);
+    expect(judge(tared, steady(100.5))).toBe('GO');
+    expect(judge(tared, steady(102))).toBe('OVER');
+    // Part A sets the scale of the rest: 102 g is taken, part B follows it (102 × 14 / 100).
+    expect(confirmPour(tared, steady(102), T0).active!.targetG).toBeCloseTo(14.28, 10);
+    expect(refusal(() => confirmPour(tared, moving(100), T0)).code).toBe('NOT_STABLE');
+    // Nothing to rescue on part A's own pour.
+    expect(refusal(() => takeRescue(tared, steady(102), T0)).code).toBe('NOT_OVER');
   });
 
   it('recomputes the part B target from part A as poured', () => {
@@ -237,5 +253,70 @@ describe('batch state machine: abandon, interrupt, resume', () => {
   it('leaves a saved batch alone when interrupted', () => {
     const saved = confirmPour(atPartB(), steady(14), T0);
     expect(interrupt(saved, 'scale offline', T0)).toBe(saved);
+  });
+});
+
+describe('the verdict without flicker (hysteresis of one scale interval)', () => {
+  // The bench's own case: part B 0.42 g on a 0.01 g scale, band ±1 % → 0.4158–0.4242 g, so only
+  // the reading 0.42 is inside; 0.41 is UNDER and 0.43 OVER.
+  const band = { lowG: 0.4158, highG: 0.4242 };
+  const d = 0.01;
+
+  function run(readings: number[]): string[] {
+    let held: HeldZone | null = null;
+    return readings.map((netG) => {
+      const next = judgeSteady(held, steady(netG), band, d);
+      held = next.held;
+      return next.verdict;
+    });
+  }
+
+  it('holds its verdict while the reading dithers by one interval across an edge', () => {
+    // 0.41 UNDER; 0.42 is 0.01 from 0.41, not more than d: still UNDER. 0.43 is 0.02 from the
+    // last UNDER reading: OVER. From then on 0.42/0.43 is one interval of dither: OVER holds.
+    expect(run([0.4, 0.41, 0.42, 0.43, 0.42, 0.43, 0.42, 0.43, 0.43, 0.42])).toEqual([
+      'UNDER',
+      'UNDER',
+      'UNDER',
+      'OVER',
+      'OVER',
+      'OVER',
+      'OVER',
+      'OVER',
+      'OVER',
+      'OVER',
+    ]);
+    // Reached GO from 0.40 (0.02 away), the same dither keeps GO.
+    expect(run([0.4, 0.42, 0.43, 0.42, 0.43, 0.42])).toEqual([
+      'UNDER',
+      'GO',
+      'GO',
+      'GO',
+      'GO',
+      'GO',
+    ]);
+  });
+
+  it('never changes more than once while a reading dithers by one interval', () => {
+    for (const start of [0.41, 0.42, 0.43]) {
+      const dither = Array.from({ length: 40 }, (_, i) => (i % 2 === 0 ? start : start + d));
+      const verdicts = run(dither);
+      const changes = verdicts.filter((v, i) => i > 0 && v !== verdicts[i - 1]).length;
+      expect(changes).toBe(0);
+    }
+  });
+
+  it('follows a reading that moves by more than one interval', () => {
+    // 0.40 UNDER, 0.42 is 0.02 from 0.40 → GO, 0.44 is 0.02 from 0.42 → OVER, back to 0.42 → GO.
+    expect(run([0.4, 0.42, 0.44, 0.42])).toEqual(['UNDER', 'GO', 'OVER', 'GO']);
+  });
+
+  it('without hysteresis the same dither flips GO and OVER at every reading', () => {
+    const raw = [0.42, 0.43, 0.42, 0.43].map((g) => (g > band.highG ? 'OVER' : 'GO'));
+    expect(raw).toEqual(['GO', 'OVER', 'GO', 'OVER']);
+  });
+
+  it('shows SETTLING inside the band while the reading moves', () => {
+    expect(judgeSteady(null, moving(0.42), band, d).verdict).toBe('SETTLING');
   });
 });

@@ -108,7 +108,9 @@ function firstPour(rec: BatchRecord, part: number, targetG: number, tared: boole
     part,
     kind: 'first',
     targetG,
-    band: part === 0 ? null : bandOf(toleranceBand(targetG, rec.tolerancePct)),
+    // Part A's band is shown and judged for the operator, but does not hold the batch: every
+    // later part follows part A as poured (see confirmPour).
+    band: bandOf(toleranceBand(targetG, rec.tolerancePct)),
     slowDownFromG: targetG * SLOW_DOWN_FRACTION,
     tared,
   };
@@ -186,6 +188,55 @@ export function markTared(rec: BatchRecord, now: string): BatchRecord {
 export function judge(rec: BatchRecord, reading: NetReading): PourVerdict | null {
   if (!isWeighing(rec.state) || !rec.active?.tared || !rec.active.band) return null;
   return judgeReading(reading.netG, reading.stable, rec.active.band);
+}
+
+/**
+ * Part A's own pour: its band is advice (a verdict on the gauge), never a condition, because
+ * every later part is recomputed from part A as poured. A top-up of part A must be in its band.
+ */
+export const isAdvisoryPour = (active: ActivePour): boolean =>
+  active.part === 0 && active.kind === 'first';
+
+/** Where a reading sits against the band, whatever its stability. */
+export type BandZone = 'under' | 'in' | 'over';
+
+/** The zone shown, and the last reading that agreed with it. */
+export interface HeldZone {
+  zone: BandZone;
+  atG: number;
+}
+
+const zoneOf = (netG: number, band: { lowG: number; highG: number }): BandZone =>
+  netG < band.lowG ? 'under' : netG > band.highG ? 'over' : 'in';
+
+/**
+ * The verdict without flicker. The zone shown (UNDER, in the band, OVER) changes only when the
+ * reading has moved by more than one scale interval d from the last reading that agreed with it;
+ * a reading dithering by one interval across an edge keeps the zone it had. Inside the band the
+ * verdict is GO when the reading is stable, SETTLING while it moves (stability is not held).
+ * Pure: the caller keeps `held` between readings and starts afresh (null) for every pour.
+ */
+export function judgeSteady(
+  held: HeldZone | null,
+  reading: NetReading,
+  band: { lowG: number; highG: number },
+  intervalG: number,
+): { verdict: PourVerdict; held: HeldZone } {
+  const raw = zoneOf(reading.netG, band);
+  let next: HeldZone;
+  if (!held || raw === held.zone) next = { zone: raw, atG: reading.netG };
+  else if (Math.abs(reading.netG - held.atG) > intervalG + EPS)
+    next = { zone: raw, atG: reading.netG };
+  else next = held;
+  const verdict: PourVerdict =
+    next.zone === 'under'
+      ? 'UNDER'
+      : next.zone === 'over'
+        ? 'OVER'
+        : reading.stable
+          ? 'GO'
+          : 'SETTLING';
+  return { verdict, held: next };
 }
 
 function withDeviation(rec: BatchRecord): BatchRecord {
@@ -289,7 +340,7 @@ export function confirmPour(
   if (!(netG > 0) && !(credited && netG >= 0)) {
     throw new BatchRefusal('Nothing has been poured yet', 'NOTHING_POURED');
   }
-  if (active.band) {
+  if (active.band && !isAdvisoryPour(active)) {
     const verdict = judgeReading(netG, true, active.band);
     if (verdict !== 'GO') {
       throw new BatchRefusal(
@@ -340,7 +391,11 @@ export function takeRescue(
   requireWeighing(rec);
   const r = requireReading(rec, reading);
   const active = rec.active!;
-  if (!active.band || judgeReading(r.netG, true, active.band) !== 'OVER') {
+  if (
+    !active.band ||
+    isAdvisoryPour(active) ||
+    judgeReading(r.netG, true, active.band) !== 'OVER'
+  ) {
     throw new BatchRefusal('There is no over-pour to rescue', 'NOT_OVER');
   }
   const rescue = proposeRescue(rec, r, capacity);

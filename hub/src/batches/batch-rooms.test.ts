@@ -65,7 +65,14 @@ describe('the batch rooms with a fake clock, store and scale', () => {
     runner = new BatchRunner(sessions, scales, events, clock, {
       batches: { saveDwellMs: DWELL_MS },
     });
-    service = new BatchesService(store, sessions, materials, plans);
+    service = new BatchesService(
+      store,
+      sessions,
+      materials,
+      plans,
+      { confirmLead: () => Promise.reject(new Error('no lead in these tests')) },
+      { record: () => Promise.reject(new Error('no audit in these tests')) },
+    );
     await runner.onApplicationBootstrap();
   }
 

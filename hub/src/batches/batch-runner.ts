@@ -15,8 +15,10 @@ import { ScalesService } from '../scales/scales.service.js';
 import {
   confirmPour,
   interrupt,
+  isAdvisoryPour,
   isWeighing,
   judge,
+  judgeSteady,
   proposeRescue,
   type BatchRecord,
 } from './batch-machine.js';
@@ -92,9 +94,13 @@ export class BatchRunner
       session.traceDirty = true;
     }
     const online = this.scales.status(benchId).state === 'online';
-    const verdict = online && !reading.outOfRange ? judge(session.rec, reading) : null;
+    const verdict = online && !reading.outOfRange ? this.steadyVerdict(session, reading) : null;
+    // The dwell runs only while the reading itself is inside the band: a verdict held over one
+    // interval of dither is shown, never saved. Part A's band is advice: the operator confirms it.
+    const savable =
+      verdict === 'GO' && judge(session.rec, reading) === 'GO' && !isAdvisoryPour(active);
     let saveInMs: number | null = null;
-    if (verdict === 'GO') {
+    if (savable) {
       session.goSince ??= reading.t;
       saveInMs = Math.max(0, this.dwellMs - (reading.t - session.goSince));
       if (saveInMs === 0) this.autoConfirm(session);
@@ -112,10 +118,23 @@ export class BatchRunner
         stable: reading.stable,
         verdict,
         saveInMs,
-        rescue: verdict === 'OVER' ? this.proposal(session.rec, benchId, reading) : null,
+        rescue:
+          verdict === 'OVER' && !isAdvisoryPour(active)
+            ? this.proposal(session.rec, benchId, reading)
+            : null,
         ...(session.saveProblem ? { saveProblem: session.saveProblem } : {}),
       });
     }
+  }
+
+  /** The verdict without flicker, held per pour: a new pour (or a new tare) starts afresh. */
+  private steadyVerdict(session: BenchSession, reading: ReadingEvent) {
+    const active = session.rec.active;
+    if (!judge(session.rec, reading) || !active?.band) return null;
+    const held = session.held?.active === active ? session.held.zone : null;
+    const next = judgeSteady(held, reading, active.band, this.scales.readabilityG(session.benchId));
+    session.held = { active, zone: next.held };
+    return next.verdict;
   }
 
   /** A scale that goes away mid-pour interrupts the batch: no verdict without a scale. */

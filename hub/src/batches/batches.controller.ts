@@ -30,6 +30,7 @@ import { InvalidInput } from '../common/domain-errors.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { BatchDeskService } from './batch-desk.service.js';
 import { BatchesService } from './batches.service.js';
+import { OverrideThrottlerGuard } from './override-throttler.guard.js';
 
 const listQuerySchema = batchListQuerySchema;
 const currentQuerySchema = currentBatchQuerySchema;
@@ -103,6 +104,8 @@ export class BatchesController {
   }
 
   @Post()
+  // A lead's password may come with it (an override): those count against the sign-in budget.
+  @UseGuards(OverrideThrottlerGuard)
   create(
     @Body(new ZodValidationPipe(createBatchSchema, 'The batch cannot start'))
     body: z.output<typeof createBatchSchema>,

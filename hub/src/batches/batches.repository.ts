@@ -24,6 +24,7 @@ export type BatchDetail = Pick<
   /** Gross on the balance when the active pour was tared (the cup and earlier parts). */
   tareGrossG?: number;
   noGoReason?: string | null;
+  scaleOverride?: NonNullable<Batch['scaleOverride']>;
 };
 
 export const detailOf = (row: BatchRow): BatchDetail => row.detail as BatchDetail;
@@ -57,7 +58,13 @@ export function detailFor(
   rec: BatchRecord,
   keep: Pick<
     BatchDetail,
-    'potLifeMin' | 'potLifeMassG' | 'costPerKg' | 'handledBy' | 'tareLost' | 'tareGrossG'
+    | 'potLifeMin'
+    | 'potLifeMassG'
+    | 'costPerKg'
+    | 'handledBy'
+    | 'tareLost'
+    | 'tareGrossG'
+    | 'scaleOverride'
   >,
 ): BatchDetail {
   return {
@@ -73,6 +80,7 @@ export function detailFor(
     ...(keep.handledBy ? { handledBy: keep.handledBy } : {}),
     ...(keep.tareLost ? { tareLost: true } : {}),
     ...(keep.tareGrossG !== undefined ? { tareGrossG: keep.tareGrossG } : {}),
+    ...(keep.scaleOverride ? { scaleOverride: keep.scaleOverride } : {}),
     ...(rec.noGoReason ? { noGoReason: rec.noGoReason } : {}),
   };
 }
@@ -90,6 +98,7 @@ export function toBatch(row: BatchRow, rec: BatchRecord, trace?: TracePoint[]): 
     planId: row.planId,
     operator: { id: row.operatorId, name: row.operatorName },
     ...(d.handledBy?.length ? { handledBy: d.handledBy } : {}),
+    ...(d.scaleOverride ? { scaleOverride: d.scaleOverride } : {}),
     totalMassG: rec.totalMassG,
     weightRatio: rec.weightRatio,
     parts: rec.parts,

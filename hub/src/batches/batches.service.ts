@@ -1,13 +1,17 @@
 import { Inject, Injectable, Logger, Optional } from '@nestjs/common';
 import {
+  batchFitness,
   costPerKgOf,
   overdrawWarning,
+  PART_NAMES,
+  SCALE_TOO_COARSE_PATH,
   splitTotalG,
   type Batch,
-  type createBatchSchema,
+  type CreateBatchBody,
 } from '@tareline/protocol';
-import type { z } from 'zod';
+import { AuditRepository } from '../audit/audit.repository.js';
 import type { AuthUser } from '../auth/auth-user.js';
+import { SignInService } from '../auth/sign-in.service.js';
 import { Conflict, BenchBusy, NotAllowed, NotFound } from '../common/domain-errors.js';
 import { MaterialsService } from '../materials/materials.service.js';
 import { PourPlansService } from '../pour-plans/pour-plans.service.js';
@@ -51,10 +55,12 @@ export class BatchesService {
     @Inject(BenchSessions) private readonly sessions: BenchSessions,
     @Inject(MaterialsService) private readonly materials: MaterialsService,
     @Inject(PourPlansService) private readonly plans: PourPlansService,
+    @Inject(SignInService) private readonly signIn: Pick<SignInService, 'confirmLead'>,
+    @Inject(AuditRepository) private readonly audit: Pick<AuditRepository, 'record'>,
     /** Refuses a batch while a scale check runs or (by the bench's policy) is due. */
     @Optional()
     @Inject(ScaleCheckGate)
-    private readonly scaleChecks?: Pick<ScaleCheckGate, 'assertMayStartBatch'>,
+    private readonly scaleChecks?: Pick<ScaleCheckGate, 'assertMayStartBatch' | 'repeatabilitySdG'>,
   ) {}
 
   // ---- queries ---------------------------------------------------------------------------
@@ -95,13 +101,14 @@ export class BatchesService {
   // ---- operator intents --------------------------------------------------------------------
 
   /** A batch of a material and total, or from a pour plan (its total recomputed now). */
-  async create(body: z.output<typeof createBatchSchema>, user: AuthUser): Promise<Batch> {
+  async create(body: CreateBatchBody, user: AuthUser): Promise<Batch> {
     const plan = body.planId ? await this.plans.forBatch(body.planId) : undefined;
     const input = {
       benchId: body.benchId,
       lots: body.lots,
       materialId: plan?.materialId ?? body.materialId ?? '',
       totalMassG: plan?.totalMassG ?? body.totalMassG ?? 0,
+      override: body.override,
     };
     requireBenchAccess(user, input.benchId);
     if (!this.sessions.hasBench(input.benchId)) {
@@ -155,6 +162,7 @@ export class BatchesService {
             ],
       });
     }
+    const scaleOverride = await this.checkScaleFitness(input, material, user);
     const rec = startBatch({
       weightRatio: material.weightRatio,
       partLabels: material.partLabels,
@@ -168,6 +176,12 @@ export class BatchesService {
       potLifeMin: material.potLifeMin ?? null,
       potLifeMassG: material.potLifeMassG ?? null,
       costPerKg: costPerKgOf(material) ?? null,
+      ...(scaleOverride
+        ? {
+            scaleOverride,
+            handledBy: [{ ...scaleOverride.by, role: 'lead' as const, at: scaleOverride.at }],
+          }
+        : {}),
     });
     const row = await this.store.insert({
       benchId: input.benchId,
@@ -186,6 +200,74 @@ export class BatchesService {
     const session = this.sessions.open(row);
     this.logger.log(`Batch ${row.id} started on ${input.benchId} by ${user.name}`);
     return toBatch(session.row, session.rec);
+  }
+
+  /**
+   * Refuses a batch whose smallest part is below what the bench's scale weighs within the band
+   * (USP General Chapter <41>, coverage 2: `batchFitness`), naming the smallest batch it can
+   * weigh, unless a lead's e-mail and password come with it. An accepted override is audited
+   * before the batch is stored, and kept with the batch.
+   */
+  private async checkScaleFitness(
+    input: Pick<CreateBatchBody, 'benchId' | 'override'> & {
+      materialId: string;
+      totalMassG: number;
+    },
+    material: { name: string; weightRatio: number[]; partLabels: string[]; tolerancePct: number },
+    user: AuthUser,
+  ): Promise<NonNullable<Batch['scaleOverride']> | undefined> {
+    const fit = batchFitness({
+      weightRatio: material.weightRatio,
+      totalMassG: input.totalMassG,
+      tolerancePct: material.tolerancePct,
+      readabilityG: this.sessions.readabilityG(input.benchId),
+      // The bench's last measured repeatability; without one the fitness falls back to 0.41 d
+      // (USP <41>).
+      repeatabilitySdG: (await this.scaleChecks?.repeatabilitySdG(input.benchId)) ?? null,
+    });
+    const short = fit.tooSmall[0];
+    if (!short) return undefined;
+    const g = (v: number) => `${Number(v.toFixed(3))} g`;
+    const part = `Part ${PART_NAMES[short.part]}`;
+    const why =
+      `${part} would be ${g(short.targetG)}, below the ${g(fit.minNetG)} this scale weighs within ` +
+      `±${material.tolerancePct} %: the smallest batch it can weigh is ${g(fit.smallestBatchG)}`;
+    if (!input.override) {
+      throw new Conflict(`${why}. Make a larger batch, or ask a lead to allow it`, [
+        { path: SCALE_TOO_COARSE_PATH, message: why },
+      ]);
+    }
+    const lead = await this.signIn.confirmLead(input.override, 'a batch too small for this scale');
+    const at = this.sessions.nowIso();
+    const override = {
+      by: { id: lead.id, name: lead.name },
+      at,
+      minNetG: fit.minNetG,
+      smallestBatchG: fit.smallestBatchG,
+    };
+    await this.audit.record(
+      async () => undefined,
+      () => ({
+        at,
+        actor: { id: lead.id, name: lead.name },
+        entity: 'bench',
+        entityId: input.benchId,
+        action: 'scale-fitness.override',
+        data: {
+          operator: { id: user.id, name: user.name },
+          materialId: input.materialId,
+          totalMassG: input.totalMassG,
+          part: short.part,
+          targetG: short.targetG,
+          minNetG: fit.minNetG,
+          smallestBatchG: fit.smallestBatchG,
+        },
+      }),
+    );
+    this.logger.log(
+      `${lead.name} allowed a ${input.totalMassG} g batch on ${input.benchId}: ${why}`,
+    );
+    return override;
   }
 
   /** Tares the scale for the active pour (the empty lined cup, or the cup with earlier parts). */

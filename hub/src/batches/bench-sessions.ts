@@ -13,6 +13,7 @@ import {
   markTared,
   type BatchRecord,
   type NetReading,
+  type HeldZone,
 } from './batch-machine.js';
 import {
   BatchesRepository,
@@ -56,6 +57,8 @@ export interface BenchSession {
   saveProblem?: string;
   lastPourEmitMs: number;
   lastVerdict: string | null;
+  /** The zone the gauge shows for the active pour (see `judgeSteady`), and the pour it is for. */
+  held?: { active: BatchRecord['active']; zone: HeldZone } | undefined;
   /** Serialises every change to this batch: auto-save and operator intents never race. */
   queue: Promise<unknown>;
 }

@@ -41,6 +41,12 @@ export class ScaleCheckGate {
     }
   }
 
+  /** The bench's last measured repeatability (sample standard deviation, g); null: none yet. */
+  async repeatabilitySdG(benchId: string): Promise<number | null> {
+    const policy = await this.repository.policy(benchId);
+    return policy?.repeatabilitySdG ?? null;
+  }
+
   async status(benchId: string): Promise<BenchCheckStatus> {
     const policy = await this.repository.policy(benchId);
     if (!policy) throw new NotFound(`There is no bench "${benchId}"`);

@@ -15,7 +15,7 @@ import {
 import { SerialPortMock } from 'serialport';
 import { Logger } from '@nestjs/common';
 import { afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { ScaleCommandError, ScaleLink } from './scale-link.js';
+import { ScaleCommandError, ScaleLink, scaleDetailInWords } from './scale-link.js';
 import { SerialTransport } from './transports/serial.transport.js';
 
 type MockPort = Awaited<ReturnType<typeof SerialPortMock.binding.open>>;
@@ -300,11 +300,14 @@ describe('ScaleLink over the mock serial binding', () => {
     await until('online', stateIs(link, 'online'));
     scale.unplug();
     await until('offline', stateIs(link, 'offline'));
-    expect(link.status().detail).toMatch(/EIO/);
+    // Told in words, without the device's path (which the hub's log keeps).
+    expect(link.status().detail).toMatch(/its cable was pulled or it was switched off/);
+    expect(link.status().detail).not.toMatch(/\/dev\/|EIO/);
     // Retries fail while unplugged and stay offline (not an error: nothing is wrong but the cable).
     await new Promise((r) => setTimeout(r, 300));
     expect(link.status().state).toBe('offline');
-    expect(link.status().detail).toMatch(/No such file/);
+    expect(link.status().detail).toMatch(/not connected: check that its cable is plugged in/);
+    expect(link.status().detail).not.toMatch(/\/dev\/|No such file/);
     scale.plugged = true;
     await openedMidLine(scale, 2);
     scale.print('headered', { grams: 11 });
@@ -326,7 +329,7 @@ describe('ScaleLink over the mock serial binding', () => {
     await until('online', stateIs(link, 'online'));
     scale.plugged = false;
     await until('offline', stateIs(link, 'offline'), 3_000);
-    expect(link.status().detail).toMatch(/port has gone|No such file/);
+    expect(link.status().detail).toMatch(/port has gone|not connected/);
     scale.plugged = true;
     await openedMidLine(scale, 2);
     scale.print('headered', { grams: 11 });
@@ -406,5 +409,27 @@ describe('ScaleLink over the mock serial binding', () => {
     await link.stop();
     expect(scale.port.isOpen).toBe(false);
     expect(link.status().state).toBe('offline');
+  });
+});
+
+describe('a scale error told in words', () => {
+  it('names no device path or address and no error code', () => {
+    const cases = [
+      'serial /dev/ttyUSB0 9600 8N1: Error: ENOENT: no such file or directory, cannot open /dev/ttyUSB0; trying again in 2.0 s',
+      'connection lost: EIO: i/o error, read',
+      'serial COM3 9600 8N1: Error: EACCES: permission denied, open COM3; trying again in 1.0 s',
+      'tcp 10.0.4.17:4001: connect ECONNREFUSED 10.0.4.17:4001; trying again in 4.0 s',
+      'serial /tmp/tareline-pty-3 open, waiting for the first line',
+    ];
+    const words = cases.map(scaleDetailInWords);
+    for (const w of words)
+      expect(w).not.toMatch(/\/dev\/|\/tmp\/|COM\d|E[A-Z]{3,}|\d+\.\d+\.\d+\.\d+/);
+    expect(words[0]).toBe(
+      'the serial port: the scale is not connected: check that its cable is plugged in; trying again in 2.0 s',
+    );
+    expect(words[1]).toMatch(/its cable was pulled or it was switched off/);
+    expect(words[2]).toMatch(/not allowed to open the scale port: ask an admin/);
+    expect(words[3]).toMatch(/^the network link: .*nothing answers at the scale's network address/);
+    expect(words[4]).toBe('the serial port open, waiting for the first line');
   });
 });

@@ -475,13 +475,16 @@ export class ScaleLink {
     for (const listener of this.readingListeners) listener(reading);
   }
 
-  private setState(state: ScaleState, detail: string): void {
+  private setState(state: ScaleState, rawDetail: string): void {
+    // The bench screen and the status event get words; the hub's log keeps the device and the
+    // system's own message for whoever wires the scale.
+    const detail = scaleDetailInWords(rawDetail);
     if (state === this.current.state && detail === this.current.detail) return;
     const previous = this.current.state;
     this.current = { benchId: this.benchId, state, detail };
     if (state !== previous) {
       const log = state === 'error' ? 'warn' : 'log';
-      this.logger[log](`${state}: ${detail}`);
+      this.logger[log](`${state}: ${rawDetail}`);
     }
     for (const listener of this.statusListeners) listener(this.current);
   }
@@ -597,4 +600,44 @@ export class ScaleLink {
 /** Drops floating-point dust (0.1 + 0.2) without touching any printed digit. */
 function round(grams: number): number {
   return Math.round(grams * 1e6) / 1e6;
+}
+
+/** What a system error code means at a bench, in words (errno names as Node.js reports them). */
+const CODE_WORDS: Record<string, string> = {
+  ENOENT: 'the scale is not connected: check that its cable is plugged in',
+  ENODEV: 'the scale is not connected: check that its cable is plugged in',
+  ENXIO: 'the scale is not connected: check that its cable is plugged in',
+  EIO: 'the scale stopped answering: its cable was pulled or it was switched off',
+  EACCES: 'the hub is not allowed to open the scale port: ask an admin',
+  EPERM: 'the hub is not allowed to open the scale port: ask an admin',
+  EBUSY: 'another program is using the scale port',
+  ECONNREFUSED: "nothing answers at the scale's network address",
+  EHOSTUNREACH: "the scale's network address cannot be reached",
+  ENETUNREACH: "the scale's network address cannot be reached",
+  ECONNRESET: 'the scale closed the network connection',
+  ETIMEDOUT: 'the scale did not answer in time',
+};
+
+/**
+ * A scale state's detail as an operator reads it: system error codes told in words, and no
+ * device paths (`/dev/ttyUSB0`, `COM3`, a pseudo-terminal's path) or network addresses.
+ */
+export function scaleDetailInWords(detail: string): string {
+  const known = new RegExp(
+    `(?:Error:\\s*)?(?:connect\\s+)?\\b(${Object.keys(CODE_WORDS).join('|')})\\b(?::[^;]*|\\s+[\\w.:-]+)?`,
+    'g',
+  );
+  return (
+    detail
+      // "Error: ENOENT: no such file or directory, cannot open /dev/ttyUSB0" and the like.
+      .replace(known, (_m, code: string) => CODE_WORDS[code]!)
+      .replace(/(?:Error:\s*)?\bE[A-Z]{3,}:[^;]*/g, 'the system refused the scale port')
+      .replace(/(?:Error:\s*)?No such file or directory[^;]*/gi, CODE_WORDS.ENOENT!)
+      // The link's own description: `serial /dev/ttyUSB0 9600 8N1`, `tcp 10.0.0.7:4001`.
+      .replace(/\bserial \S+(?: \d+ \d[NEOMS]\d(?: RTS\/CTS)?)?/g, 'the serial port')
+      .replace(/\btcp [\w.-]+:\d+/g, 'the network link')
+      .replace(/(?:\/dev\/|\/tmp\/|\\\\\.\\)[^\s,;:)]+/g, 'the scale port')
+      .replace(/\bCOM\d+\b/g, 'the scale port')
+      .replace(/\b\d{1,3}(?:\.\d{1,3}){3}(?::\d+)?\b/g, "the scale's address")
+  );
 }

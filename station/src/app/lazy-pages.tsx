@@ -69,3 +69,9 @@ export const CheckNotice = lazy(() =>
     default: m.CheckNotice,
   })),
 );
+// A demo and training aid, folded below the bench flow: not needed for the first paint.
+export const SimulatorPanel = lazy(() =>
+  import('../features/simulator/components/simulator-panel').then((m) => ({
+    default: m.SimulatorPanel,
+  })),
+);

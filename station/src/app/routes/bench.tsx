@@ -3,9 +3,8 @@ import { Suspense, type ComponentProps } from 'react';
 import { BenchFlow } from '../../features/batch/components/bench-flow';
 import { PotLifeReminder } from '../../features/batch/components/pot-life-reminder';
 import { useBenches } from '../../lib/benches';
-import { SimulatorPanel } from '../../features/simulator/components/simulator-panel';
 import { useSession } from '../../lib/auth';
-import { CheckNotice, VolumeEstimator } from '../lazy-pages';
+import { CheckNotice, SimulatorPanel, VolumeEstimator } from '../lazy-pages';
 
 /** The planner's volume estimator inside the bench flow's amount step, loaded when opened. */
 function BenchEstimator(props: ComponentProps<typeof VolumeEstimator>) {
@@ -48,7 +47,9 @@ export function BenchHomeRoute() {
             No balance here: drive the simulated scale
           </summary>
           <div className="mt-3">
-            <SimulatorPanel benchId={benchId} />
+            <Suspense fallback={<p className="text-xl text-muted">Loading the simulator…</p>}>
+              <SimulatorPanel benchId={benchId} />
+            </Suspense>
           </div>
         </details>
       )}

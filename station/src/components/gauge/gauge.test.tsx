@@ -55,6 +55,21 @@ describe('Gauge', () => {
     expect(screen.getByText('Slow down: near the target')).toBeInTheDocument();
   });
 
+  it('magnifies around the target inside the slow-down zone and says what is still to pour', () => {
+    const { rerender } = render(
+      <Gauge reading={reading(10)} status={online} verdict="UNDER" {...partB} />,
+    );
+    expect(screen.getByTestId('gauge-track')).toHaveAttribute('data-view', 'whole');
+    rerender(<Gauge reading={reading(13.76)} status={online} verdict="UNDER" {...partB} />);
+    expect(screen.getByTestId('gauge-track')).toHaveAttribute('data-view', 'fine');
+    // 14 − 13.76 = 0.24 g to pour.
+    expect(screen.getByTestId('to-go')).toHaveTextContent('0.24 g to go');
+    // The band takes 30 % of the magnified track (see track.ts).
+    const band = document.querySelector<HTMLElement>('[data-zone="band"]')!;
+    expect(parseFloat(band.style.width)).toBeGreaterThanOrEqual(25);
+    expect(screen.getByText('Close-up around the target')).toBeInTheDocument();
+  });
+
   it('says overload instead of a number', () => {
     render(<Gauge reading={reading(0, { outOfRange: 'overload' })} status={online} />);
     expect(screen.getByTestId('net-weight')).toHaveTextContent('OVERLOAD');

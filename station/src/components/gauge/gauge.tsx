@@ -3,7 +3,7 @@ import { useRef, type ReactNode } from 'react';
 import { useEasedScaleX } from '../../hooks/use-eased-scale';
 import type { GaugeBand, GaugeVerdict } from './types';
 import { decimalsForReadability, formatGrams } from '../../lib/grams';
-import { trackEndG, trackFraction } from './track';
+import { fineWindow, trackEndG, trackFraction } from './track';
 import { VerdictBadge } from './verdict-badge';
 
 export interface GaugeProps {
@@ -52,8 +52,22 @@ export function Gauge({
   const fillRef = useRef<HTMLDivElement>(null);
   const online = status.state === 'online';
   const netG = reading?.netG ?? 0;
-  const endG = trackEndG(netG, targetG, band?.highG);
-  useEasedScaleX(fillRef, reading && !reading.outOfRange ? trackFraction(netG, endG) : 0);
+  // Inside the slow-down zone (and beyond) the track shows only the grams around the target,
+  // magnified so the band is wide enough to aim at.
+  const fine =
+    online &&
+    !!reading &&
+    !reading.outOfRange &&
+    targetG !== undefined &&
+    band !== undefined &&
+    slowDownFromG !== undefined &&
+    netG >= slowDownFromG;
+  const { startG, endG } =
+    fine && band && targetG !== undefined
+      ? fineWindow(targetG, band)
+      : { startG: 0, endG: trackEndG(netG, targetG, band?.highG) };
+  const at = (grams: number) => trackFraction(grams, endG, startG);
+  useEasedScaleX(fillRef, reading && !reading.outOfRange ? at(netG) : 0);
 
   const decimals = decimalsForReadability(readabilityG);
   const digits = !reading
@@ -70,6 +84,7 @@ export function Gauge({
     netG >= slowDownFromG &&
     netG < band.lowG;
   const state = STATE_SHOWN[status.state];
+  const toGoG = online && reading && targetG !== undefined ? targetG - netG : undefined;
 
   return (
     <section
@@ -77,7 +92,7 @@ export function Gauge({
       className="rounded-2xl bg-panel p-6 shadow-sm ring-1 ring-line"
     >
       <div className="flex items-center justify-between gap-4">
-        <h2 className="text-2xl font-semibold">{label ?? 'Net weight'}</h2>
+        <h2 className="text-4xl font-semibold">{label ?? 'Net weight'}</h2>
         <div
           role="status"
           aria-live="polite"
@@ -96,6 +111,12 @@ export function Gauge({
       <p
         className={`mt-2 flex items-baseline justify-end gap-4 font-bold tabular-nums leading-none ${online ? '' : 'text-muted'}`}
       >
+        {toGoG !== undefined && toGoG > 0 && (
+          // What is still to pour, beside the big figure, at the decimals the scale shows.
+          <span data-testid="to-go" className="mr-auto self-center text-5xl text-steel">
+            {formatGrams(toGoG, decimals)} g to go
+          </span>
+        )}
         <span className="sr-only">Net weight</span>
         <span data-testid="net-weight" className="text-[12rem] tracking-tight">
           {digits}
@@ -103,23 +124,29 @@ export function Gauge({
         <span className="text-6xl">g</span>
       </p>
       {reading && (
-        <p className="text-right text-xl text-muted">
-          {reading.stable ? 'stable' : 'moving'} · gross {formatGrams(reading.grossG, decimals)} g
-          {targetG !== undefined && <> · target {formatGrams(targetG, decimals)} g</>}
+        <p className="text-right text-[2rem] leading-tight">
+          <span className="text-muted">
+            {reading.stable ? 'stable' : 'moving'} · gross {formatGrams(reading.grossG, decimals)} g
+          </span>
+          {targetG !== undefined && (
+            <strong data-testid="target-line"> · target {formatGrams(targetG, decimals)} g</strong>
+          )}
         </p>
       )}
 
       <div
+        data-testid="gauge-track"
+        data-view={fine ? 'fine' : 'whole'}
         className="relative mt-6 h-16 overflow-hidden rounded-lg bg-paper ring-1 ring-line"
         aria-hidden="true"
       >
-        {slowDownFromG !== undefined && band && (
+        {!fine && slowDownFromG !== undefined && band && (
           <div
             data-zone="slow-down"
             className="absolute inset-y-0 bg-[repeating-linear-gradient(135deg,var(--color-brass)_0_6px,transparent_6px_14px)] opacity-60"
             style={{
-              left: percent(trackFraction(slowDownFromG, endG)),
-              width: percent(trackFraction(band.lowG, endG) - trackFraction(slowDownFromG, endG)),
+              left: percent(at(slowDownFromG)),
+              width: percent(at(band.lowG) - at(slowDownFromG)),
             }}
           />
         )}
@@ -128,8 +155,8 @@ export function Gauge({
             data-zone="band"
             className="absolute inset-y-0 bg-go/25 ring-2 ring-go ring-inset"
             style={{
-              left: percent(trackFraction(band.lowG, endG)),
-              width: percent(trackFraction(band.highG, endG) - trackFraction(band.lowG, endG)),
+              left: percent(at(band.lowG)),
+              width: percent(at(band.highG) - at(band.lowG)),
             }}
           />
         )}
@@ -143,10 +170,18 @@ export function Gauge({
           <div
             data-zone="target"
             className="absolute inset-y-0 w-1 -translate-x-1/2 bg-ink"
-            style={{ left: percent(trackFraction(targetG, endG)) }}
+            style={{ left: percent(at(targetG)) }}
           />
         )}
       </div>
+      {fine && (
+        // The magnified track says so, with the grams at its ends.
+        <p className="mt-1 flex justify-between text-2xl text-muted tabular-nums">
+          <span>{formatGrams(startG, decimals + 1)} g</span>
+          <span className="font-semibold text-ink">Close-up around the target</span>
+          <span>{formatGrams(endG, decimals + 1)} g</span>
+        </p>
+      )}
 
       <div className="mt-5 flex min-h-24 items-center gap-6">
         {online && verdict ? (
@@ -157,7 +192,7 @@ export function Gauge({
           </p>
         ) : null}
         {nearTarget && (
-          <p className="flex items-center gap-3 text-3xl font-bold">
+          <p className="flex items-center gap-3 text-4xl font-bold">
             <svg viewBox="0 0 24 24" aria-hidden="true" className="h-10 w-10">
               <path
                 d="M3 20 L12 4 L21 20 Z"

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { decimalsForReadability, formatGrams } from '../../lib/grams';
-import { trackEndG, trackFraction } from './track';
+import { fineWindow, trackEndG, trackFraction } from './track';
 
 describe('gauge number formatting', () => {
   it('shows as many decimals as the scale interval', () => {
@@ -23,5 +23,19 @@ describe('gauge number formatting', () => {
     expect(trackFraction(50, 100)).toBe(0.5);
     expect(trackFraction(-5, 100)).toBe(0);
     expect(trackFraction(500, 100)).toBe(1);
+  });
+});
+
+describe('the fine view near the target', () => {
+  it('magnifies so that the band spans at least a quarter of the track', () => {
+    // Part B 0.42 g, band ±1 % → 0.4158–0.4242 g: the window is 0.0084 / 0.3 = 0.028 g wide,
+    // 0.406–0.434 g, and the band takes 30 % of it.
+    const w = fineWindow(0.42, { lowG: 0.4158, highG: 0.4242 });
+    expect(w.startG).toBeCloseTo(0.406, 10);
+    expect(w.endG).toBeCloseTo(0.434, 10);
+    const share = trackFraction(0.4242, w.endG, w.startG) - trackFraction(0.4158, w.endG, w.startG);
+    expect(share).toBeGreaterThanOrEqual(0.25);
+    // The whole track at 0.42 g would show the same band at 1/(1.15 × 0.4242) × 0.0084 ≈ 1.7 %.
+    expect((0.4242 - 0.4158) / trackEndG(0, 0.42, 0.4242)).toBeLessThan(0.02);
   });
 });

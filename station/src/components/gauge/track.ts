@@ -13,8 +13,21 @@ function niceCeiling(grams: number): number {
   return 10 * magnitude;
 }
 
-/** A weight's position on the track, 0 (empty) to 1 (track end), clamped. */
-export function trackFraction(grams: number, endG: number): number {
-  if (!(endG > 0)) return 0;
-  return Math.min(1, Math.max(0, grams / endG));
+/** A weight's position on the track, 0 (track start, empty by default) to 1 (track end), clamped. */
+export function trackFraction(grams: number, endG: number, startG = 0): number {
+  if (!(endG > startG)) return 0;
+  return Math.min(1, Math.max(0, (grams - startG) / (endG - startG)));
+}
+
+/** Share of the fine view's width the band takes: at least a quarter, with room either side. */
+export const FINE_BAND_SHARE = 0.3;
+
+/**
+ * The stretch of grams the gauge shows near the target: centred on the target, wide enough that
+ * the band takes {@link FINE_BAND_SHARE} of it (never starting below zero).
+ */
+export function fineWindow(targetG: number, band: { lowG: number; highG: number }) {
+  const width = (band.highG - band.lowG) / FINE_BAND_SHARE;
+  const startG = Math.max(0, targetG - width / 2);
+  return { startG, endG: startG + width };
 }

@@ -12,7 +12,9 @@ import { useForm, useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { asNumber, NumberField } from '../../../components/form/field';
 import { useBenches } from '../../../lib/benches';
+import { benchFitness } from '../utils/scale-fitness';
 import { primaryButton, secondaryButton } from './buttons';
+import { ScaleFitnessWarning } from './scale-fitness-warning';
 
 // Measuring without a scale is rare at a bench built around one: its code loads when asked for.
 const NoScaleTools = lazy(() =>
@@ -62,9 +64,11 @@ export function AmountStep({
     defaultValues: initialG === undefined ? {} : { totalMassG: initialG },
   });
   const benches = useBenches();
-  const scale = benches.data?.find((b) => b.id === benchId)?.scale;
+  const bench = benches.data?.find((b) => b.id === benchId);
+  const scale = bench?.scale;
   const planMaterial = useMemo<PlanMaterial>(() => planMaterialOf(material), [material]);
   const typedG = asNumber(useWatch({ control, name: 'totalMassG' }));
+  const fitness = benchFitness(material, typedG, bench);
   const noScaleParts = useMemo(() => {
     const parsed = batchTotalMassSchema.safeParse(typedG);
     if (!parsed.success) return undefined;
@@ -119,6 +123,13 @@ export function AmountStep({
           {noScale ? 'Close: back to the scale' : 'No scale here'}
         </button>
       </form>
+      {fitness && fitness.tooSmall.length > 0 && (
+        <ScaleFitnessWarning
+          fitness={fitness}
+          material={material}
+          onUseSmallest={(g) => setValue('totalMassG', g, { shouldValidate: true })}
+        />
+      )}
       {noScale && (
         <section aria-label="No scale here" className="flex flex-col gap-4">
           <p className="text-lg">

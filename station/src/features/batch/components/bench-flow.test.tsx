@@ -296,12 +296,37 @@ describe('weighing on the live gauge', { timeout: 20_000 }, () => {
     const offer = screen.getByRole('region', { name: 'Over the band: the ratio can be restored' });
     expect(offer).toHaveTextContent('Add 3.57 g of Part A (Resin)');
     expect(offer).toHaveTextContent('It fits on the scale');
-    expect(within(offer).getByRole('button', { name: 'Save as NO-GO' })).toBeEnabled();
+    // Saving NO-GO asks first; going back leaves the offer as it was.
+    await user.click(within(offer).getByRole('button', { name: 'Save as NO-GO…' }));
+    expect(within(offer).getByText('Save this batch as NO-GO?')).toBeInTheDocument();
+    await user.click(within(offer).getByRole('button', { name: 'No, go back' }));
+    expect(requests.at(-1)?.path).not.toBe('/batches/7/save-no-go');
     await user.click(within(offer).getByRole('button', { name: 'Add part A' }));
     expect(
       await screen.findByRole('heading', { name: 'Top up Part A (Resin): 3.57 g' }),
     ).toBeInTheDocument();
     expect(requests.at(-1)).toMatchObject({ method: 'POST', path: '/batches/7/rescue' });
+  });
+
+  it('does not say the ratio can be restored when the rescue does not fit', async () => {
+    hubWith({}, partBFixture());
+    openBench();
+    await screen.findByRole('heading', { name: 'Weigh Part B (Hardener): 14.00 g' });
+    scaleOnline();
+    liveSocket().fire('reading', readingFixture(14.5, true));
+    liveSocket().fire(
+      'pour',
+      pourFixture({
+        netG: 14.5,
+        verdict: 'OVER',
+        rescue: { addG: [3.5714, 0], totalAfterG: 4100, fits: false },
+      }),
+    );
+    const offer = screen.getByRole('region', {
+      name: 'Over the band: the rescue does not fit on the scale',
+    });
+    expect(offer).not.toHaveTextContent(/can be restored/);
+    expect(within(offer).getByRole('button', { name: 'Add part A' })).toBeDisabled();
   });
 
   it('says the batch is not saved while the hub cannot write it', async () => {

@@ -142,16 +142,17 @@ export function BenchFlow({ benchId, estimator }: { benchId: string; estimator: 
         material={chosen}
         starting={create.isPending}
         startError={create.error}
-        onStart={() => {
+        onStart={(override) => {
           const lots = Object.entries(draft.lots)
             .filter(([, code]) => code.trim() !== '')
             .map(([part, code]) => ({ part: Number(part), code: code.trim() }));
           // From a plan the hub takes the plan's total, recomputed if the material changed.
-          create.mutate(
-            draft.plan
+          create.mutate({
+            ...(draft.plan
               ? { benchId, planId: draft.plan.id, lots }
-              : { benchId, materialId: chosen.id, totalMassG: draft.totalMassG ?? 0, lots },
-          );
+              : { benchId, materialId: chosen.id, totalMassG: draft.totalMassG ?? 0, lots }),
+            ...(override ? { override } : {}),
+          });
         }}
       />
     );

@@ -1,8 +1,13 @@
 import type { Batch, Material } from '@tareline/protocol';
-import { useEffect } from 'react';
+import { lazy, Suspense, useEffect } from 'react';
 import { rememberLastPoured } from '../utils/last-poured';
-import { SavedBatch } from './after-save/saved-batch';
 import { primaryButton } from './buttons';
+
+// What follows a save (pot life, mixing steps, the cup label and its QR code library) is not
+// needed for the bench's first paint: it loads while the operator pours.
+const SavedBatch = lazy(() =>
+  import('./after-save/saved-batch').then((m) => ({ default: m.SavedBatch })),
+);
 
 /**
  * Step 6: what the hub committed. Only ever shown for a batch the hub itself says is saved (or
@@ -19,23 +24,35 @@ export function FinishedStep({
 }) {
   // The cup outlives this screen: keep its pot life for the signed-out bench.
   useEffect(() => rememberLastPoured(batch.benchId, batch), [batch]);
+  const next = (
+    <button type="button" onClick={onNext} className={primaryButton}>
+      Next batch
+    </button>
+  );
+  if (batch.state === 'saved' && material) {
+    // SavedBatch opens with the batch number, the hub's verdict and the way on.
+    return (
+      <Suspense
+        fallback={
+          <div className="flex items-center justify-between gap-4">
+            <p role="status" className="text-3xl font-bold">
+              Batch {batch.id} saved
+            </p>
+            {next}
+          </div>
+        }
+      >
+        <SavedBatch batch={batch} material={material} action={next} />
+      </Suspense>
+    );
+  }
   return (
     <div className="flex flex-col gap-6">
-      {/* At the top: the saved page is long (pot life, label, steps) and this is the way on. */}
-      <div className="flex justify-end">
-        <button type="button" onClick={onNext} className={primaryButton}>
-          Next batch
-        </button>
-      </div>
+      <div className="flex justify-end">{next}</div>
       {batch.state === 'saved' ? (
-        // SavedBatch opens with the batch number and the hub's verdict.
-        material ? (
-          <SavedBatch batch={batch} material={material} />
-        ) : (
-          <p role="status" className="text-3xl font-bold">
-            Batch {batch.id} saved
-          </p>
-        )
+        <p role="status" className="text-3xl font-bold">
+          Batch {batch.id} saved
+        </p>
       ) : (
         <p
           role="status"

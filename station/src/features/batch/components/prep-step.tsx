@@ -1,9 +1,11 @@
-import type { Material } from '@tareline/protocol';
+import { SCALE_TOO_COARSE_PATH, type LoginRequest, type Material } from '@tareline/protocol';
 import { useEffect, useState } from 'react';
+import { ApiRequestError } from '../../../lib/api-client';
 import { formatCountdown } from '../../../lib/countdown';
 import { latestSds, useMaterialDocuments } from '../../../lib/material-documents';
 import { dangerButton, primaryButton, secondaryButton } from './buttons';
 import { HubError } from './hub-error';
+import { LeadOverride } from './lead-override';
 
 /** Said for every material, beside its own cautions; the SDS and local rules come first. */
 const GENERAL_CAUTIONS = [
@@ -30,8 +32,16 @@ export function PrepStep({
   material: Material;
   starting: boolean;
   startError: Error | null;
-  onStart: () => void;
+  /** Starts the batch; with a lead's e-mail and password when the scale is too coarse for it. */
+  onStart: (override?: LoginRequest) => void;
 }) {
+  // Once the hub has said the scale is too coarse, the lead's form stays until the batch starts
+  // (a mistyped password is refused, and the lead tries again).
+  const [needsLead, setNeedsLead] = useState(false);
+  const tooCoarse =
+    startError instanceof ApiRequestError &&
+    startError.body.errors.some((e) => e.path === SCALE_TOO_COARSE_PATH);
+  if (tooCoarse && !needsLead) setNeedsLead(true);
   const needsAgitation = material.agitateMin > 0;
   const [agitation, setAgitation] = useState<Agitation>({ kind: 'waiting' });
   const ready = !needsAgitation || agitation.kind === 'done' || agitation.kind === 'skipped';
@@ -79,11 +89,12 @@ export function PrepStep({
           <AgitationTimer minutes={material.agitateMin} state={agitation} onState={setAgitation} />
         )}
         <HubError error={startError} what="The batch did not start" />
+        {(tooCoarse || needsLead) && ready && <LeadOverride busy={starting} onOverride={onStart} />}
         <div>
           <button
             type="button"
             disabled={!ready || starting}
-            onClick={onStart}
+            onClick={() => onStart()}
             className={primaryButton}
           >
             {starting ? 'Starting…' : 'Start weighing'}

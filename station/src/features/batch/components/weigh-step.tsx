@@ -110,6 +110,9 @@ function ActivePour({
       ? live.pour
       : undefined;
   const judged = active.band !== null;
+  // Part A's own pour has a band and a verdict as advice; the operator says when it is done.
+  const operatorConfirms = !judged || (active.part === 0 && active.kind === 'first');
+  const moving = !live.reading?.stable;
   const verdict = online && active.tared ? (pour?.verdict ?? null) : null;
   const lastToPour = batch.parts.every((p, i) => i === active.part || p.actualG !== null);
   const title = active.kind === 'top-up' ? `Top up ${name}` : `Weigh ${name}`;
@@ -118,7 +121,7 @@ function ActivePour({
   if (!active.tared) {
     actions = (
       <>
-        <p className="text-2xl">
+        <p className="text-[2rem] leading-tight">
           {active.part === 0 && active.kind === 'first'
             ? 'Put the lined cup on the scale, then tare.'
             : 'Tare the scale with the cup as it is.'}
@@ -133,13 +136,17 @@ function ActivePour({
         </button>
       </>
     );
-  } else if (!judged) {
+  } else if (operatorConfirms) {
     actions = (
       <>
-        <p className="text-2xl">Press done once the reading is steady.</p>
+        <p role="status" className="text-[2rem] leading-tight">
+          {moving
+            ? 'The reading is moving: wait until it is steady.'
+            : 'Press done once the reading is steady.'}
+        </p>
         <button
           type="button"
-          disabled={busy || !online || !live.reading?.stable}
+          disabled={busy || !online || moving}
           onClick={() => send('next')}
           className={primaryButton}
         >
@@ -156,7 +163,7 @@ function ActivePour({
     );
   } else if (verdict === 'GO' && pour?.saveInMs != null) {
     actions = (
-      <p role="status" className="text-3xl font-bold">
+      <p role="status" className="text-4xl font-bold">
         Steady in the band: {lastToPour ? 'saving' : `part ${letter} done`} in{' '}
         {(pour.saveInMs / 1000).toFixed(1)} s
       </p>
@@ -165,7 +172,7 @@ function ActivePour({
     actions = <RescueOffer batch={batch} rescue={pour.rescue} busy={busy} send={send} />;
   } else {
     actions = (
-      <p className="text-2xl">
+      <p className="text-[2rem] leading-tight">
         Pour into the band and hold still: the batch {lastToPour ? 'saves' : 'moves on'} by itself.
       </p>
     );
@@ -211,11 +218,14 @@ function RescueOffer({
 }) {
   const additions = rescue.addG.map((g, part) => ({ g, part })).filter(({ g }) => g > 0);
   const only = additions.length === 1 ? additions[0] : undefined;
+  const [confirmingNoGo, setConfirmingNoGo] = useState(false);
   return (
     <section aria-labelledby="rescue-title" className="flex flex-wrap items-center gap-4">
       <div className="text-xl">
-        <h4 id="rescue-title" className="font-bold">
-          Over the band: the ratio can be restored
+        <h4 id="rescue-title" className="text-[2rem] leading-tight font-bold">
+          {rescue.fits === false
+            ? 'Over the band: the rescue does not fit on the scale'
+            : 'Over the band: the ratio can be restored'}
         </h4>
         <ul className="text-2xl">
           {additions.map(({ g, part }) => (
@@ -241,14 +251,36 @@ function RescueOffer({
       >
         {only ? `Add part ${partLetter(only.part)}` : 'Add the parts'}
       </button>
-      <button
-        type="button"
-        disabled={busy}
-        onClick={() => send('save-no-go')}
-        className={dangerButton}
-      >
-        Save as NO-GO
-      </button>
+      {confirmingNoGo ? (
+        // A NO-GO cup is kept apart for a lead: one press by mistake should not decide that.
+        <div role="group" aria-label="Confirm NO-GO" className="flex items-center gap-4">
+          <p className="text-[2rem] leading-tight font-bold">Save this batch as NO-GO?</p>
+          <button
+            type="button"
+            disabled={busy}
+            onClick={() => send('save-no-go')}
+            className={dangerButton}
+          >
+            Yes, save as NO-GO
+          </button>
+          <button
+            type="button"
+            onClick={() => setConfirmingNoGo(false)}
+            className={secondaryButton}
+          >
+            No, go back
+          </button>
+        </div>
+      ) : (
+        <button
+          type="button"
+          disabled={busy}
+          onClick={() => setConfirmingNoGo(true)}
+          className={dangerButton}
+        >
+          Save as NO-GO…
+        </button>
+      )}
     </section>
   );
 }

@@ -19,7 +19,7 @@ export function PotLifeCountdown({
   potLifeMassG,
 }: PotLifeCountdownProps) {
   return (
-    <section aria-labelledby="pot-life-title" className="space-y-4 rounded-xl bg-panel p-6">
+    <section aria-labelledby="pot-life-title" className="space-y-1 rounded-xl bg-panel px-4 py-3">
       <h3 id="pot-life-title" className="text-2xl font-bold">
         Pot life
       </h3>
@@ -57,12 +57,13 @@ function Countdown({ endsAt, potLifeMin }: { endsAt: Date; potLifeMin: number })
       <p
         role="timer"
         aria-label="Pot life left"
-        className="text-[9rem] leading-none font-bold tabular-nums"
+        className="text-[4rem] leading-none font-bold tabular-nums"
       >
         {formatCountdown(left)}
       </p>
-      <p className="mt-2 text-2xl">
-        left of {potLifeMin} min · use by <span className="font-bold">{formatClock(endsAt)}</span>
+      <p className="mt-1 text-xl">
+        left of {potLifeMin} min · use by{' '}
+        <span className="font-bold whitespace-nowrap">{formatClock(endsAt)}</span>
       </p>
     </div>
   );

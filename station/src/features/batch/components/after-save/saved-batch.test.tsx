@@ -42,6 +42,37 @@ describe('SavedBatch', () => {
     expect(banner).toHaveTextContent('Outside the ±1 % band · ratio +3.57 %');
     expect(banner).toHaveTextContent('Keep this cup apart');
     expect(within(screen.getByRole('article')).getByText('NO-GO')).toBeInTheDocument();
+    // Its checklist keeps it apart and never says to pour it.
+    const steps = screen.getByRole('region', { name: 'What to do with this cup' });
+    expect(steps).toHaveTextContent('Keep the cup apart');
+    expect(within(steps).queryByText(/^\d\. Pour/)).not.toBeInTheDocument();
+    expect(screen.queryByRole('region', { name: 'Mixing steps' })).not.toBeInTheDocument();
+  });
+
+  it('names on the label everyone who handled the batch, the lead who allowed it, and a rescue', () => {
+    render(
+      <SavedBatch
+        batch={savedBatch({
+          handledBy: [
+            { id: 'p-2', name: 'Ilse Varga', role: 'lead', at: SAVED_AT.toISOString() },
+            { id: 'p-3', name: 'Tomas Erlund', role: 'operator', at: SAVED_AT.toISOString() },
+          ],
+          scaleOverride: {
+            by: { id: 'p-2', name: 'Ilse Varga' },
+            at: SAVED_AT.toISOString(),
+            minNetG: 0.82,
+            smallestBatchG: 3.86,
+          },
+          rescue: { addG: [3.5714, 0], totalAfterG: 118.07, fits: true },
+          steps: { ...savedBatch().steps, rescueTaken: SAVED_AT.toISOString() },
+        })}
+        material={material}
+      />,
+    );
+    const label = screen.getByRole('article');
+    expect(label).toHaveTextContent('Ilse Varga (lead), Tomas Erlund (operator)');
+    expect(label).toHaveTextContent('Ilse Varga: small for the scale');
+    expect(label).toHaveTextContent('over-pour, then A +3.57 g');
   });
 
   it('counts the pot life down from the save and says when it is over', () => {
@@ -117,11 +148,14 @@ describe('SavedBatch', () => {
     const label = screen.getByRole('article', { name: 'Cup label for batch 42' });
     expect(label).toHaveAttribute('data-print', 'label');
     const row = (term: string) => within(label).getByText(term).nextElementSibling;
-    expect(row('Part A (Resin)')).toHaveTextContent('100.00 g');
-    expect(row('Part B (Hardener)')).toHaveTextContent('14.10 g');
-    expect(row('Lot A')).toHaveTextContent('HRP-R-2611');
-    expect(row('Lot B')).toHaveTextContent('HRP-H-2702');
-    expect(row('Operator')).toHaveTextContent('Wren Ashby');
+    // One row a part: its letter, what was poured, its name and its lot.
+    const part = (letter: string) =>
+      within(label).getByRole('rowheader', { name: letter }).closest('tr');
+    expect(part('A')).toHaveTextContent('100.00 g Resin');
+    expect(part('A')).toHaveTextContent('lot HRP-R-2611');
+    expect(part('B')).toHaveTextContent('14.10 g Hardener');
+    expect(part('B')).toHaveTextContent('lot HRP-H-2702');
+    expect(row('Mixed by')).toHaveTextContent('Wren Ashby');
     expect(row('Mixed')).toHaveTextContent('2027-03-04 14:05');
     expect(row('Use by')).toHaveTextContent('2027-03-04 14:30');
     expect(label).toHaveTextContent(material.name);
