@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { and, asc, desc, eq, gt, type SQL } from 'drizzle-orm';
-import { Database, type Db } from '../database/database.js';
+import { ADVISORY_LOCKS, Database, lockForTransaction, type Db } from '../database/database.js';
 import { auditEntries } from '../database/schema/index.js';
 import { entryHash, GENESIS_HASH, type ChainedFields, type StoredEntry } from './audit-chain.js';
 
@@ -31,7 +31,8 @@ export class AuditRepository {
 
   /**
    * Runs `write` and appends the entry it leads to, in one transaction: either both are stored or
-   * neither. PGlite runs one transaction at a time, so the last hash read here stays the last.
+   * neither. The chain's head is locked for the transaction (an advisory lock), so the last hash
+   * read here stays the last even with several hubs on one server.
    */
   record<T>(write: (tx: Tx) => Promise<T>, entryOf: (result: T) => AuditInput): Promise<T> {
     return this.database.db.transaction(async (tx) => {
@@ -58,6 +59,7 @@ export class AuditRepository {
   }
 
   private async appendIn(tx: Tx, entry: AuditInput): Promise<void> {
+    await lockForTransaction(tx, ADVISORY_LOCKS.auditHead);
     const [last] = await tx
       .select({ id: auditEntries.id, hash: auditEntries.hash })
       .from(auditEntries)

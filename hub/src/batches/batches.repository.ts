@@ -11,7 +11,12 @@ import {
 } from '@tareline/protocol';
 import { and, asc, desc, eq, getTableColumns, gte, inArray, lt, sql, type SQL } from 'drizzle-orm';
 import type { Tx } from '../audit/audit.repository.js';
-import { Database, type DbOrTx } from '../database/database.js';
+import {
+  ADVISORY_LOCKS,
+  Database,
+  lockForTransaction,
+  type DbOrTx,
+} from '../database/database.js';
 import { batchDispositions, batches, benches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
 import { encodeTrace, type TracePoint } from './pour-trace.js';
@@ -220,23 +225,21 @@ export class BatchesRepository implements BatchStore {
   /**
    * Inserts a batch under the next number after the highest one. Numbers are printed on cup
    * labels and an auditor asks about every gap; a sequence would skip the numbers it had cached
-   * whenever the hub dies. Two hubs racing for one number: the loser takes the next.
+   * whenever the hub dies. Hubs sharing one server take the numbers in turn (an advisory lock
+   * held to the end of the transaction), so none is given twice and none is skipped.
    */
   async insert(values: NewBatchRow): Promise<BatchRow> {
-    for (let attempt = 1; ; attempt += 1) {
-      try {
-        const [row] = await this.db
-          .insert(batches)
-          .values({
-            ...values,
-            id: sql`(select coalesce(max(${batches.id}), 0) + 1 from ${batches})`,
-          })
-          .returning();
-        return row!;
-      } catch (err) {
-        if (attempt >= 5 || !isUniqueViolation(err)) throw err;
-      }
-    }
+    return this.db.transaction(async (tx) => {
+      await lockForTransaction(tx, ADVISORY_LOCKS.batchNumber);
+      const [row] = await tx
+        .insert(batches)
+        .values({
+          ...values,
+          id: sql`(select coalesce(max(${batches.id}), 0) + 1 from ${batches})`,
+        })
+        .returning();
+      return row!;
+    });
   }
 
   async writeRecord(
@@ -443,11 +446,4 @@ export class BatchesRepository implements BatchStore {
       .orderBy(desc(batches.id))
       .limit(filter.limit);
   }
-}
-
-function isUniqueViolation(err: unknown): boolean {
-  for (let e: unknown = err; e instanceof Error; e = e.cause) {
-    if ((e as { code?: string }).code === '23505') return true;
-  }
-  return false;
 }

@@ -6,3 +6,4 @@ export * from './people.js';
 export * from './alerts.js';
 export * from './dispositions.js';
 export * from './audit.js';
+export * from './hubs.js';
