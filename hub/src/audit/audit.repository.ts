@@ -45,6 +45,9 @@ export class AuditRepository {
   /** Appends one entry on its own, unless the latest entry of its entity says the same. */
   appendUnlessSame(entry: AuditInput, same: (latest: StoredEntry) => boolean): Promise<void> {
     return this.database.db.transaction(async (tx) => {
+      // Locked before the latest is read: two announcements at once (two connections of a
+      // server's pool) would otherwise both find it different and both append.
+      await lockForTransaction(tx, ADVISORY_LOCKS.auditHead);
       const [latest] = await tx
         .select()
         .from(auditEntries)

@@ -1,8 +1,10 @@
-import { Module } from '@nestjs/common';
+import { Module, type MiddlewareConsumer, type NestModule } from '@nestjs/common';
 import { AuditModule } from '../audit/audit.module.js';
+import { HubsModule } from '../hubs/hubs.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
 import { AccuracyController } from './accuracy.controller.js';
+import { BatchIntentRouting } from './batch-intent.middleware.js';
 import { BatchDeskService } from './batch-desk.service.js';
 import { BatchRunner } from './batch-runner.js';
 import { BatchesController } from './batches.controller.js';
@@ -16,10 +18,15 @@ import { BenchSessions } from './bench-sessions.js';
  * and the service (what people ask). They publish `batch.changed` and `pour.judged`.
  */
 @Module({
-  imports: [ScalesModule, MaterialsModule, AuditModule],
+  imports: [ScalesModule, MaterialsModule, AuditModule, HubsModule],
   controllers: [BatchesController, AccuracyController],
   providers: [BatchesRepository, BenchSessions, BatchRunner, BatchesService, BatchDeskService],
   // The repository for features that store their own rows with a batch's (alerts).
   exports: [BatchesService, BatchesRepository],
 })
-export class BatchesModule {}
+export class BatchesModule implements NestModule {
+  configure(consumer: MiddlewareConsumer): void {
+    // Intents at a bench another hub reads are handed to that hub (several hubs, one server).
+    consumer.apply(BatchIntentRouting).forRoutes(BatchesController);
+  }
+}

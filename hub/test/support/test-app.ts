@@ -1,5 +1,5 @@
 import 'reflect-metadata';
-import { access, cp, mkdtemp, readdir, rm, writeFile } from 'node:fs/promises';
+import { access, cp, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { INestApplication } from '@nestjs/common';
@@ -39,9 +39,16 @@ export async function startTestHub(
   const pgAdminUrl = providedPgAdminUrl();
   if (pgAdminUrl && !env.DATABASE_URL) {
     // The PostgreSQL suite: the same hub on a server database of its own.
-    const kind = env.TARELINE_DEMO === '0' ? 'migrated' : 'demo';
-    const template = options.template === 'none' ? undefined : await templateDatabase(kind);
-    env = { ...serverEnv(await createDatabase(pgAdminUrl, template)), ...env };
+    // A hub started again on the same folder finds the same database, as a restart would.
+    const remembered = join(dataDir, 'test-database-url');
+    let url = await readFile(remembered, 'utf8').catch(() => undefined);
+    if (!url) {
+      const kind = env.TARELINE_DEMO === '0' ? 'migrated' : 'demo';
+      const template = options.template === 'none' ? undefined : await templateDatabase(kind);
+      url = await createDatabase(pgAdminUrl, template);
+      await writeFile(remembered, url);
+    }
+    env = { ...serverEnv(url), ...env };
   } else if (options.template !== 'none' && (await isEmpty(dataDir))) {
     const template = await templateFolder(env.TARELINE_DEMO === '0' ? 'migrated' : 'demo');
     if (template) await cp(template, dataDir, { recursive: true });
