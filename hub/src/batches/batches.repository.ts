@@ -11,12 +11,7 @@ import {
 } from '@tareline/protocol';
 import { and, asc, desc, eq, getTableColumns, gte, inArray, lt, sql, type SQL } from 'drizzle-orm';
 import type { Tx } from '../audit/audit.repository.js';
-import {
-  ADVISORY_LOCKS,
-  Database,
-  lockForTransaction,
-  type DbOrTx,
-} from '../database/database.js';
+import { ADVISORY_LOCKS, Database, lockForTransaction, type DbOrTx } from '../database/database.js';
 import { batchDispositions, batches, benches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
 import { encodeTrace, type TracePoint } from './pour-trace.js';
@@ -163,8 +158,11 @@ export interface BatchStore {
   ): Promise<BatchRow>;
   writeTrace(id: number, trace: readonly TracePoint[]): Promise<void>;
   findById(id: number): Promise<BatchRow | undefined>;
-  /** Batches being weighed or interrupted: the ones a bench still has open. */
-  findOpen(): Promise<BatchRow[]>;
+  /**
+   * Batches being weighed or interrupted: the ones a bench still has open; with `hubId`, only
+   * at the benches whose scales that hub reads.
+   */
+  findOpen(hubId?: string): Promise<BatchRow[]>;
   list(filter: BatchListFilter): Promise<BatchRow[]>;
 }
 
@@ -294,11 +292,14 @@ export class BatchesRepository implements BatchStore {
     return row;
   }
 
-  findOpen(): Promise<BatchRow[]> {
+  findOpen(hubId?: string): Promise<BatchRow[]> {
+    const open = inArray(batches.state, [...WEIGHING_STATES, 'interrupted']);
+    if (hubId === undefined) return this.db.select().from(batches).where(open);
     return this.db
-      .select()
+      .select(getTableColumns(batches))
       .from(batches)
-      .where(inArray(batches.state, [...WEIGHING_STATES, 'interrupted']));
+      .innerJoin(benches, eq(benches.id, batches.benchId))
+      .where(and(open, eq(benches.hubId, hubId)));
   }
 
   /** Number, state and verdict of the batches saved or abandoned since `since`. */

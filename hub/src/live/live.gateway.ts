@@ -14,6 +14,7 @@ import {
   type SocketAuthenticator,
   type SocketPrincipal,
 } from '../auth/socket-authenticator.js';
+import { HubDirectory } from '../hubs/hub-directory.js';
 import { ScalesService } from '../scales/scales.service.js';
 
 interface LiveSocketData {
@@ -63,6 +64,7 @@ export class LiveGateway
   constructor(
     @Inject(SOCKET_AUTHENTICATOR) private readonly authenticator: SocketAuthenticator,
     @Inject(ScalesService) private readonly scales: ScalesService,
+    @Inject(HubDirectory) private readonly hubs: HubDirectory,
   ) {}
 
   afterInit(namespace: LiveNamespace): void {
@@ -75,7 +77,9 @@ export class LiveGateway
         next(new Error("Name the bench in the handshake: io('/live', { query: { benchId } })"));
         return;
       }
-      if (!this.scales.has(benchId)) {
+      // A bench whose scale another hub reads is watched here all the same: its events come
+      // through the database (the socket.io PostgreSQL adapter).
+      if (!this.scales.has(benchId) && !this.hubs.remote(benchId)) {
         next(new Error(`There is no bench "${benchId}"`));
         return;
       }
@@ -109,6 +113,14 @@ export class LiveGateway
       socket.emit('scaleStatus', this.scales.status(benchId));
       const latest = this.scales.latest(benchId);
       if (latest) socket.emit('reading', latest);
+      return;
+    }
+    const remote = this.hubs.remote(benchId);
+    const scale = this.hubs.remoteScale(benchId);
+    if (remote && scale) {
+      socket.emit('scaleStatus', { benchId, state: scale.state, detail: scale.detail });
+      // The newest reading its hub told (up to a heartbeat old); live ones follow.
+      if (remote.alive && remote.snapshot.latest) socket.emit('reading', remote.snapshot.latest);
     }
   }
 
@@ -126,6 +138,15 @@ export class LiveGateway
     this.server?.to(benchRoom(benchId)).emit(event, ...payload);
   }
 
+  /** Sends an event to the screens watching a bench through this hub only (not the others). */
+  emitToBenchHere<E extends keyof LiveServerEvents>(
+    benchId: string,
+    event: E,
+    ...payload: Parameters<LiveServerEvents[E]>
+  ): void {
+    this.server?.local.to(benchRoom(benchId)).emit(event, ...payload);
+  }
+
   /** Stops the periodic re-check (the app is closing). */
   close(): void {
     clearInterval(this.recheckTimer);
@@ -141,7 +162,9 @@ export class LiveGateway
   }
 
   private async recheck(): Promise<void> {
-    const sockets = await this.server.fetchSockets();
+    // This hub's own sockets: each hub re-checks its own (asking the others would wait on a
+    // silent hub).
+    const sockets = await this.server.local.fetchSockets();
     for (const socket of sockets) {
       const ok = await this.authenticator.stillValid(socket.data.principal).catch(() => false);
       if (!ok) socket.disconnect(true);

@@ -1,6 +1,7 @@
 import { Inject, Injectable, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
 import type { BatchEvent, PourEvent, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
-import { OnHubEvent } from '../events/hub-events.js';
+import { OnHubEvent, type HubEventMap } from '../events/hub-events.js';
+import { goneStatus } from '../hubs/hub-directory.js';
 import { ScalesService } from '../scales/scales.service.js';
 import { LiveGateway } from './live.gateway.js';
 import { TrailingThrottle } from './reading-throttle.js';
@@ -49,6 +50,15 @@ export class LiveService implements OnModuleInit, OnApplicationShutdown {
   @OnHubEvent('pour.judged')
   onPourJudged(event: PourEvent): void {
     this.gateway.emitToBench(event.benchId, 'pour', event);
+  }
+
+  /** A silent hub's benches, watched through this hub, go offline on the screens at once. */
+  @OnHubEvent('hub.lost')
+  onHubLost(event: HubEventMap['hub.lost']): void {
+    if (event.self) return;
+    for (const benchId of event.benchIds) {
+      this.gateway.emitToBenchHere(benchId, 'scaleStatus', goneStatus(benchId, event.hubId));
+    }
   }
 
   onApplicationShutdown(): void {
