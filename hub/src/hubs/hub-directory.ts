@@ -70,10 +70,14 @@ export class HubDirectory implements OnApplicationBootstrap, BeforeApplicationSh
   async onApplicationBootstrap(): Promise<void> {
     if (!this.shared) return;
     await this.tick();
-    this.timer = setInterval(() => {
-      // One beat at a time: a slow database delays the next instead of piling them up.
-      this.beating ??= this.tick().finally(() => (this.beating = undefined));
-    }, HEARTBEAT_MS);
+    this.timer = setInterval(() => this.beat(), HEARTBEAT_MS);
+    // A bench taken on is told to the others at once, not a heartbeat later.
+    this.scales.onAttach(() => setImmediate(() => this.timer && this.beat()));
+  }
+
+  private beat(): void {
+    // One beat at a time: a slow database delays the next instead of piling them up.
+    this.beating ??= this.tick().finally(() => (this.beating = undefined));
   }
 
   async beforeApplicationShutdown(): Promise<void> {

@@ -49,7 +49,7 @@ export async function startTestHub(
       await writeFile(remembered, url);
     }
     env = { ...serverEnv(url), ...env };
-  } else if (options.template !== 'none' && (await isEmpty(dataDir))) {
+  } else if (!env.DATABASE_URL && options.template !== 'none' && (await isEmpty(dataDir))) {
     const template = await templateFolder(env.TARELINE_DEMO === '0' ? 'migrated' : 'demo');
     if (template) await cp(template, dataDir, { recursive: true });
   }
@@ -156,6 +156,12 @@ async function templateDatabase(kind: 'demo' | 'migrated'): Promise<string> {
       } finally {
         await data.remove();
       }
+      // Copies start with no hub known and no bench taken: each test's hubs take them.
+      const template = new pg.Client({ connectionString: url.toString() });
+      await template.connect();
+      await template
+        .query('delete from hubs; update benches set hub_id = null')
+        .finally(() => template.end());
       await writeFile(ready, '');
     }
   } finally {
