@@ -137,11 +137,11 @@ export class HubDirectory implements OnApplicationBootstrap, BeforeApplicationSh
 
   private async tick(): Promise<void> {
     try {
-      const { wasNotedDown } = await this.repository.beat(
-        this.hubId,
-        this.internalUrl(),
-        this.snapshot(),
-      );
+      // Not alive to the others before it listens: they could not hand it anything yet.
+      const internalUrl = this.internalUrl();
+      const { wasNotedDown } = internalUrl
+        ? await this.repository.beat(this.hubId, internalUrl, this.snapshot())
+        : { wasNotedDown: false };
       if (wasNotedDown) {
         this.logger.warn('Another hub found this one silent and interrupted its open batches');
         this.events.emit('hub.lost', {

@@ -22,7 +22,7 @@ export class HubsRepository {
    */
   async beat(
     id: string,
-    internalUrl: string | null,
+    internalUrl: string,
     scales: Record<string, ScaleSnapshot>,
   ): Promise<{ wasNotedDown: boolean }> {
     const rows = await this.database.rows<{ was_noted_down: boolean }>(sql`
