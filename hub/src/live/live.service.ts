@@ -31,7 +31,7 @@ export class LiveService implements OnModuleInit, OnApplicationShutdown {
   private follow(benchId: string): void {
     this.throttles.get(benchId)?.dispose();
     const throttle = new TrailingThrottle<ReadingEvent>(1000 / MAX_READINGS_PER_S, (reading) =>
-      this.gateway.emitToBench(benchId, 'reading', reading),
+      this.gateway.emitReading(reading),
     );
     this.throttles.set(benchId, throttle);
     this.scales.onReading(benchId, (reading) => throttle.push(reading));
