@@ -30,6 +30,8 @@ export const ADVISORY_LOCKS = {
   auditHead: 0x7461_7265_0002n,
   /** Batch numbers: the highest number read stays the highest until the new batch is in. */
   batchNumber: 0x7461_7265_0003n,
+  /** The outbox: one hub sends at a time, so no mail goes twice. */
+  outbox: 0x7461_7265_0004n,
 } as const;
 
 /** Takes a transaction-scoped advisory lock: held until the transaction ends, then let go. */
