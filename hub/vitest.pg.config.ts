@@ -13,6 +13,7 @@ export default defineConfig({
       'test/batch-desk.test.ts',
       'test/people.test.ts',
       'test/demo.test.ts',
+      'test/alerts.test.ts',
       'test/**/*.pg.test.ts',
     ],
     globalSetup: ['test/support/pg-global-setup.ts'],
