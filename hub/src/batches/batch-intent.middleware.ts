@@ -3,8 +3,9 @@ import type { NextFunction, Request, Response } from 'express';
 import { IntentForwarder } from '../hubs/intent-forwarder.js';
 import { BatchesRepository } from './batches.repository.js';
 
-/** `POST /api/batches/:id/<intent>`: an operator's act on an open batch. */
-const BATCH_INTENT = /^\/api\/batches\/(\d{1,9})\/(tare|next|rescue|save-no-go|abandon|resume)$/;
+/** `POST /api/batches/:id/<intent>`: an operator's acts on an open batch. */
+export const BATCH_INTENTS = ['tare', 'next', 'rescue', 'save-no-go', 'abandon', 'resume'] as const;
+const BATCH_INTENT = new RegExp(`^/api/batches/(\\d{1,9})/(${BATCH_INTENTS.join('|')})$`);
 
 /**
  * A batch intent at a bench whose scale another hub reads goes to that hub (the open batch is in

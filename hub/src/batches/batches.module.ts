@@ -1,10 +1,10 @@
-import { Module, type MiddlewareConsumer, type NestModule } from '@nestjs/common';
+import { Module, RequestMethod, type MiddlewareConsumer, type NestModule } from '@nestjs/common';
 import { AuditModule } from '../audit/audit.module.js';
 import { HubsModule } from '../hubs/hubs.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
 import { AccuracyController } from './accuracy.controller.js';
-import { BatchIntentRouting } from './batch-intent.middleware.js';
+import { BATCH_INTENTS, BatchIntentRouting } from './batch-intent.middleware.js';
 import { BatchDeskService } from './batch-desk.service.js';
 import { BatchRunner } from './batch-runner.js';
 import { BatchesController } from './batches.controller.js';
@@ -27,6 +27,14 @@ import { BenchSessions } from './bench-sessions.js';
 export class BatchesModule implements NestModule {
   configure(consumer: MiddlewareConsumer): void {
     // Intents at a bench another hub reads are handed to that hub (several hubs, one server).
-    consumer.apply(BatchIntentRouting).forRoutes(BatchesController);
+    // The intents' own paths only, exactly as the controller declares them.
+    consumer.apply(BatchIntentRouting).forRoutes(
+      { path: 'batches', method: RequestMethod.POST },
+      { path: 'batches/current', method: RequestMethod.GET },
+      ...BATCH_INTENTS.map((intent) => ({
+        path: `batches/:id/${intent}`,
+        method: RequestMethod.POST,
+      })),
+    );
   }
 }

@@ -1,4 +1,4 @@
-import { Module, type MiddlewareConsumer, type NestModule } from '@nestjs/common';
+import { Module, RequestMethod, type MiddlewareConsumer, type NestModule } from '@nestjs/common';
 import { HubsModule } from '../hubs/hubs.module.js';
 import { ScalesModule } from '../scales/scales.module.js';
 import { BenchIntentRouting } from './bench-intent.middleware.js';
@@ -14,6 +14,8 @@ import { BenchesService } from './benches.service.js';
 })
 export class BenchesModule implements NestModule {
   configure(consumer: MiddlewareConsumer): void {
-    consumer.apply(BenchIntentRouting).forRoutes(BenchesController);
+    consumer
+      .apply(BenchIntentRouting)
+      .forRoutes({ path: 'benches/:id/simulator', method: RequestMethod.POST });
   }
 }
