@@ -55,6 +55,13 @@ async function main(): Promise<void> {
     console.error('Usage: npm run backup -- FILE');
     process.exit(2);
   }
+  if (process.env.DATABASE_URL) {
+    console.error(
+      'DATABASE_URL is set: the data is in a PostgreSQL server, not a data folder. ' +
+        'Back it up with pg_dump (docs/multi-site.md, Backups).',
+    );
+    process.exit(2);
+  }
   const url = process.env.TARELINE_HUB_URL ?? `http://127.0.0.1:${process.env.PORT ?? 3000}`;
   const dir = resolve(process.env.TARELINE_DATA_DIR ?? resolve(repoRoot, 'data'));
   const running = await fromRunningHub(url);

@@ -5,6 +5,7 @@ import helmet from 'helmet';
 import { AppModule } from './app.module.js';
 import type { AppConfig } from './config/app-config.js';
 import { ApiExceptionFilter } from './common/api-exception.filter.js';
+import { PostgresIoAdapter } from './live/postgres-io.adapter.js';
 import { PinoLogger } from './logger/pino-logger.js';
 
 /**
@@ -43,6 +44,10 @@ export async function createApp(config: AppConfig): Promise<INestApplication> {
     logger,
     abortOnError: false,
   });
+  if (config.database.url) {
+    // Several hubs on one server: live events reach the screens on every hub.
+    app.useWebSocketAdapter(new PostgresIoAdapter(app, config.database.url));
+  }
   app.use(securityHeaders);
   app.setGlobalPrefix('api');
   app.useGlobalFilters(new ApiExceptionFilter());

@@ -69,14 +69,14 @@ describe('hub, booted for real on a temporary PGlite folder', () => {
       await readFile(join(hub.config.paths.migrations, 'meta', '_journal.json'), 'utf8'),
     ) as { entries: unknown[] };
     const database = hub.app.get(Database);
-    const applied = await database.db.execute<{ n: number }>(
+    const applied = await database.rows<{ n: number }>(
       sql`select count(*)::int as n from drizzle.__drizzle_migrations`,
     );
-    expect(applied.rows[0]?.n).toBe(journal.entries.length);
-    const tables = await database.db.execute<{ table_name: string }>(
+    expect(applied[0]?.n).toBe(journal.entries.length);
+    const tables = await database.rows<{ table_name: string }>(
       sql`select table_name from information_schema.tables where table_schema = 'public'`,
     );
-    expect(tables.rows.map((r) => r.table_name)).toContain('benches');
+    expect(tables.map((r) => r.table_name)).toContain('benches');
   });
 
   it('refuses a second hub on the same data folder with a clear message', async () => {
@@ -120,11 +120,11 @@ describe('data folder', () => {
       await first.db.execute(sql`insert into benches (id, name) values ('bench-9', 'Resin bench')`);
       await first.close();
       const second = await Database.open(data.dir, migrations);
-      const rows = await second.db.execute<{ name: string }>(
+      const rows = await second.rows<{ name: string }>(
         sql`select name from benches where id = 'bench-9'`,
       );
       await second.close();
-      expect(rows.rows).toEqual([{ name: 'Resin bench' }]);
+      expect(rows).toEqual([{ name: 'Resin bench' }]);
     } finally {
       await data.remove();
     }

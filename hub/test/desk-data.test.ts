@@ -105,26 +105,24 @@ describe('a data folder filled by the batch seed script', { timeout: 240_000 }, 
   });
 
   it('gives a realistic mix: several materials, benches and operators, NO-GO, abandoned, decided', async () => {
-    const db = hub.app.get(Database).db;
-    const [mix] = (
-      await db.execute<{
-        materials: number;
-        benches: number;
-        operators: number;
-        nogo: number;
-        abandoned: number;
-        decided: number;
-        near: number;
-        saved: number;
-      }>(sql`select count(distinct material_id)::int as materials,
+    const database = hub.app.get(Database);
+    const [mix] = await database.rows<{
+      materials: number;
+      benches: number;
+      operators: number;
+      nogo: number;
+      abandoned: number;
+      decided: number;
+      near: number;
+      saved: number;
+    }>(sql`select count(distinct material_id)::int as materials,
         count(distinct bench_id)::int as benches, count(distinct operator_id)::int as operators,
         (count(*) filter (where verdict = 'NO-GO'))::int as nogo,
         (count(*) filter (where state = 'abandoned'))::int as abandoned,
         (select count(distinct batch_id)::int from batch_dispositions) as decided,
         (count(*) filter (where state = 'saved' and abs(ratio_deviation_pct) < 0.5))::int as near,
         (count(*) filter (where state = 'saved'))::int as saved
-        from batches`)
-    ).rows;
+        from batches`);
     expect(mix).toMatchObject({ materials: 5, benches: 3, operators: 10 });
     expect(mix!.nogo).toBeGreaterThan(SEEDED * 0.01);
     expect(mix!.nogo).toBeLessThan(SEEDED * 0.1);
@@ -135,22 +133,18 @@ describe('a data folder filled by the batch seed script', { timeout: 240_000 }, 
 
     // The list agrees with the database on one material's NO-GO batches (filters on seeded data).
     const material = SEED_MATERIALS[2].id;
-    const [count] = (
-      await db.execute<{ n: number }>(
-        sql`select count(*)::int as n from batches where material_id = ${material} and verdict = 'NO-GO'`,
-      )
-    ).rows;
+    const [count] = await database.rows<{ n: number }>(
+      sql`select count(*)::int as n from batches where material_id = ${material} and verdict = 'NO-GO'`,
+    );
     const ids = await walk(`materialId=${material}&verdict=NO-GO`, 50);
     expect(ids.length).toBe(count!.n);
   });
 
   it('finds a lot code whatever its letter case, through the lot index', async () => {
-    const db = hub.app.get(Database).db;
-    const [one] = (
-      await db.execute<{ code: string; n: number }>(sql`select l->>'code' as code,
+    const database = hub.app.get(Database);
+    const [one] = await database.rows<{ code: string; n: number }>(sql`select l->>'code' as code,
         count(*) over (partition by lower(l->>'code'))::int as n
-        from batches, jsonb_array_elements(detail->'lots') l limit 1`)
-    ).rows;
+        from batches, jsonb_array_elements(detail->'lots') l limit 1`);
     const ids = await walk(`lot=${encodeURIComponent(one!.code.toLowerCase())}`, 200);
     expect(ids.length).toBe(one!.n);
   });
@@ -163,7 +157,7 @@ describe('a data folder filled by the batch seed script', { timeout: 240_000 }, 
     expect(rolled.map((r) => [r.groupId, r.bucketStart, r.count, r.goShare, r.rescues])).toEqual(
       exact.map((r) => [r.groupId, r.bucketStart, r.count, r.goShare, r.rescues]),
     );
-    const db = hub.app.get(Database).db;
+    const database = hub.app.get(Database);
     for (const [i, r] of rolled.entries()) {
       const e = exact[i]!;
       expect(r.meanDeviationPct).toBeCloseTo(e.meanDeviationPct!, 9);
@@ -171,10 +165,10 @@ describe('a data folder filled by the batch seed script', { timeout: 240_000 }, 
       // The histogram's estimate and percentile_cont both lie between the batches next to the
       // 95th one (|dev| sorted); the histogram's may also be a bin width (0.05) off inside it.
       const sorted = (
-        await db.execute<{ a: number }>(sql`select abs(ratio_deviation_pct) as a from batches
+        await database.rows<{ a: number }>(sql`select abs(ratio_deviation_pct) as a from batches
           where state = 'saved' and material_id = ${r.groupId}
           and date_trunc('week', created_at, 'UTC') = ${r.bucketStart}::timestamptz order by 1`)
-      ).rows.map((x) => Number(x.a));
+      ).map((x) => Number(x.a));
       const j = Math.ceil(0.95 * sorted.length) - 1;
       const gap = sorted[Math.min(sorted.length - 1, j + 1)]! - sorted[Math.max(0, j - 1)]!;
       expect(Math.abs(r.p95AbsDeviationPct! - e.p95AbsDeviationPct!)).toBeLessThanOrEqual(

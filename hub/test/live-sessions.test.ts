@@ -3,6 +3,7 @@ import type { LiveServerEvents } from '@tareline/protocol';
 import { io, type Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { SocketAuthenticator, SocketPrincipal } from '../src/auth/socket-authenticator.js';
+import type { HubDirectory } from '../src/hubs/hub-directory.js';
 import { LiveGateway } from '../src/live/live.gateway.js';
 import type { ScalesService } from '../src/scales/scales.service.js';
 import { badgeSignIn, call, DEMO, login } from './support/auth-helpers.js';
@@ -85,8 +86,10 @@ describe('live gateway session re-check', () => {
       data: { principal: { userId, name: userId, role: 'operator', expiresAt: Infinity } },
       disconnect: vi.fn(),
     }));
-    const gateway = new LiveGateway(authenticator, {} as ScalesService);
-    const namespace = { use: () => undefined, fetchSockets: () => Promise.resolve(sockets) };
+    const gateway = new LiveGateway(authenticator, {} as ScalesService, {} as HubDirectory);
+    // Each hub re-checks its own sockets: `local` is this hub's part of the namespace.
+    const fetchSockets = () => Promise.resolve(sockets);
+    const namespace = { use: () => undefined, fetchSockets, local: { fetchSockets } };
     Object.assign(gateway, { server: namespace });
     gateway.afterInit(namespace as never);
     return { gateway, sockets, endSession: () => ended?.() };

@@ -14,7 +14,7 @@ import {
   sql,
   type SQL,
 } from 'drizzle-orm';
-import { Database, type DbOrTx } from '../database/database.js';
+import { ADVISORY_LOCKS, Database, type DbOrTx } from '../database/database.js';
 import { alertSubscriptions, benches, outbox, people } from '../database/schema/index.js';
 
 export type OutboxRow = typeof outbox.$inferSelect;
@@ -33,6 +33,11 @@ export interface Recipient {
 @Injectable()
 export class AlertsRepository {
   constructor(@Inject(Database) private readonly database: Database) {}
+
+  /** Runs an outbox pass while no other hub on the same server runs one (none twice the mail). */
+  oneSenderAtATime<T>(pass: () => Promise<T>): Promise<T> {
+    return this.database.underLock(ADVISORY_LOCKS.outbox, pass);
+  }
 
   private get db() {
     return this.database.db;

@@ -66,7 +66,8 @@ export class OutboxSender implements OnApplicationBootstrap, OnModuleDestroy {
       try {
         do {
           this.again = false;
-          await this.pass();
+          // Hubs sharing a server take turns: a row is never sent by two of them.
+          await this.repo.oneSenderAtATime(() => this.pass());
         } while (this.again);
       } finally {
         this.running = undefined;

@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { and, asc, desc, eq, gt, type SQL } from 'drizzle-orm';
-import { Database, type Db } from '../database/database.js';
+import { ADVISORY_LOCKS, Database, lockForTransaction, type Db } from '../database/database.js';
 import { auditEntries } from '../database/schema/index.js';
 import { entryHash, GENESIS_HASH, type ChainedFields, type StoredEntry } from './audit-chain.js';
 
@@ -40,8 +40,9 @@ export class AuditRepository {
 
   /**
    * Runs `write` and appends the entries it leads to (one, several, or none when it changed
-   * nothing), in one transaction: either all are stored or none. PGlite runs one transaction at
-   * a time, so the last hash read here stays the last.
+   * nothing), in one transaction: either all are stored or none. The chain's head is locked for
+   * the transaction (an advisory lock), so the last hash read here stays the last even with
+   * several hubs on one server.
    */
   record<T>(
     write: (tx: Tx) => Promise<T>,
@@ -57,6 +58,9 @@ export class AuditRepository {
   /** Appends one entry on its own, unless the latest entry of its entity says the same. */
   appendUnlessSame(entry: AuditInput, same: (latest: StoredEntry) => boolean): Promise<void> {
     return this.database.db.transaction(async (tx) => {
+      // Locked before the latest is read: two announcements at once (two connections of a
+      // server's pool) would otherwise both find it different and both append.
+      await lockForTransaction(tx, ADVISORY_LOCKS.auditHead);
       const [latest] = await tx
         .select()
         .from(auditEntries)
@@ -71,6 +75,7 @@ export class AuditRepository {
   }
 
   private async appendIn(tx: Tx, entry: AuditInput): Promise<void> {
+    await lockForTransaction(tx, ADVISORY_LOCKS.auditHead);
     const [last] = await tx
       .select({ id: auditEntries.id, hash: auditEntries.hash })
       .from(auditEntries)

@@ -10,12 +10,13 @@ export class BackupController {
 
   @Get()
   @Roles('admin')
-  @Header('Content-Type', 'application/gzip')
   @Header('Cache-Control', 'no-store')
   async download(): Promise<StreamableFile> {
     const backup = await backupOf(this.database);
     const stamp = new Date().toISOString().replace(/[:.]/g, '-');
+    // The type on the file itself, not the route: a refusal is answered in JSON.
     return new StreamableFile(backup, {
+      type: 'application/gzip',
       disposition: `attachment; filename="tareline-backup-${stamp}.tar.gz"`,
     });
   }

@@ -3,8 +3,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
 import * as tar from 'tar';
+import { NotApplicable } from '../common/domain-errors.js';
 import type { Database } from '../database/database.js';
 import { DOCUMENTS_FOLDER } from '../documents/document-files.js';
+
+/** Said when a backup is asked of a hub on a server PostgreSQL, which has its own tools. */
+export const SERVER_BACKUP_REFUSAL =
+  'This hub keeps its data in a PostgreSQL server (DATABASE_URL), not in its data folder: ' +
+  'back that server up with pg_dump (docs/multi-site.md, Backups)';
 
 /** The data folder's own secrets: without them restored badges and sessions would not check. */
 const SECRET_FILES = ['jwt-secret', 'badge-key'] as const;
@@ -40,6 +46,7 @@ async function inTempFolder<T>(run: (dir: string) => Promise<T>): Promise<T> {
 export function backupOf(database: Database): Promise<Buffer> {
   return inTempFolder(async (work) => {
     const dump = await database.dump();
+    if (!dump) throw new NotApplicable(SERVER_BACKUP_REFUSAL);
     await writeFile(join(work, DATABASE_ENTRY), Buffer.from(await dump.arrayBuffer()), {
       mode: 0o600,
     });

@@ -61,7 +61,10 @@ describe('the batch rooms with a fake clock, store and scale', () => {
   let service: BatchesService;
 
   async function boot() {
-    sessions = new BenchSessions(store, scales, events, clock);
+    sessions = new BenchSessions(store, scales, events, clock, {
+      hub: { id: 'hub-1', internalUrl: undefined, readsScales: true },
+      database: { url: undefined },
+    });
     runner = new BatchRunner(sessions, scales, events, clock, {
       batches: { saveDwellMs: DWELL_MS },
     });

@@ -1,8 +1,8 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { batchCost, WEIGHING_STATES, type Batch, type BatchState } from '@tareline/protocol';
-import { and, desc, eq, gte, inArray, sql, type SQL } from 'drizzle-orm';
-import { Database, type DbOrTx } from '../database/database.js';
-import { batches } from '../database/schema/index.js';
+import { and, desc, eq, getTableColumns, gte, inArray, sql, type SQL } from 'drizzle-orm';
+import { ADVISORY_LOCKS, Database, lockForTransaction, type DbOrTx } from '../database/database.js';
+import { batches, benches } from '../database/schema/index.js';
 import type { BatchRecord } from './batch-machine.js';
 import { encodeTrace, type TracePoint } from './pour-trace.js';
 
@@ -142,8 +142,11 @@ export interface BatchStore {
   ): Promise<BatchRow>;
   writeTrace(id: number, trace: readonly TracePoint[]): Promise<void>;
   findById(id: number): Promise<BatchRow | undefined>;
-  /** Batches being weighed or interrupted: the ones a bench still has open. */
-  findOpen(): Promise<BatchRow[]>;
+  /**
+   * Batches being weighed or interrupted: the ones a bench still has open; with `hubId`, only
+   * at the benches whose scales that hub reads.
+   */
+  findOpen(hubId?: string): Promise<BatchRow[]>;
   list(filter: BatchListFilter): Promise<BatchRow[]>;
 }
 
@@ -176,23 +179,21 @@ export class BatchesRepository implements BatchStore {
   /**
    * Inserts a batch under the next number after the highest one. Numbers are printed on cup
    * labels and an auditor asks about every gap; a sequence would skip the numbers it had cached
-   * whenever the hub dies. Two hubs racing for one number: the loser takes the next.
+   * whenever the hub dies. Hubs sharing one server take the numbers in turn (an advisory lock
+   * held to the end of the transaction), so none is given twice and none is skipped.
    */
   async insert(values: NewBatchRow): Promise<BatchRow> {
-    for (let attempt = 1; ; attempt += 1) {
-      try {
-        const [row] = await this.db
-          .insert(batches)
-          .values({
-            ...values,
-            id: sql`(select coalesce(max(${batches.id}), 0) + 1 from ${batches})`,
-          })
-          .returning();
-        return row!;
-      } catch (err) {
-        if (attempt >= 5 || !isUniqueViolation(err)) throw err;
-      }
-    }
+    return this.db.transaction(async (tx) => {
+      await lockForTransaction(tx, ADVISORY_LOCKS.batchNumber);
+      const [row] = await tx
+        .insert(batches)
+        .values({
+          ...values,
+          id: sql`(select coalesce(max(${batches.id}), 0) + 1 from ${batches})`,
+        })
+        .returning();
+      return row!;
+    });
   }
 
   async writeRecord(
@@ -251,11 +252,14 @@ export class BatchesRepository implements BatchStore {
     return row;
   }
 
-  findOpen(): Promise<BatchRow[]> {
+  findOpen(hubId?: string): Promise<BatchRow[]> {
+    const open = inArray(batches.state, [...WEIGHING_STATES, 'interrupted']);
+    if (hubId === undefined) return this.db.select().from(batches).where(open);
     return this.db
-      .select()
+      .select(getTableColumns(batches))
       .from(batches)
-      .where(inArray(batches.state, [...WEIGHING_STATES, 'interrupted']));
+      .innerJoin(benches, eq(benches.id, batches.benchId))
+      .where(and(open, eq(benches.hubId, hubId)));
   }
 
   /** Number, state and verdict of the batches saved or abandoned since `since`. */
@@ -286,11 +290,4 @@ export class BatchesRepository implements BatchStore {
       .orderBy(desc(batches.id))
       .limit(filter.limit);
   }
-}
-
-function isUniqueViolation(err: unknown): boolean {
-  for (let e: unknown = err; e instanceof Error; e = e.cause) {
-    if ((e as { code?: string }).code === '23505') return true;
-  }
-  return false;
 }

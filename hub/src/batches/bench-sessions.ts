@@ -3,6 +3,7 @@ import type { Batch, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CLOCK, type Clock } from '../common/clock.js';
 import { ScaleCommandFailed, StoreUnavailable } from '../common/domain-errors.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { HubEvents, OnHubEvent, type HubEventMap } from '../events/hub-events.js';
 import { ScaleCommandError } from '../scales/scale-link.js';
 import { ScalesService } from '../scales/scales.service.js';
@@ -78,7 +79,13 @@ export class BenchSessions {
     @Inject(ScalesService) private readonly scales: BenchScales,
     @Inject(HubEvents) private readonly events: Pick<HubEvents, 'emit'>,
     @Inject(CLOCK) private readonly clock: Clock,
+    @Inject(APP_CONFIG) private readonly config: Pick<AppConfig, 'hub' | 'database'>,
   ) {}
+
+  /** Hubs sharing a server each take back the open batches of their own benches only. */
+  private get ownOnly(): string | undefined {
+    return this.config.database.url ? this.config.hub.id : undefined;
+  }
 
   nowIso(): string {
     return new Date(this.clock.now()).toISOString();
@@ -86,20 +93,67 @@ export class BenchSessions {
 
   /** Takes back the open batches after a start; one being weighed is interrupted, not lost. */
   async restore(): Promise<void> {
-    for (const row of await this.store.findOpen()) {
+    for (const row of await this.store.findOpen(this.ownOnly)) {
       const session = sessionFromRow(row);
       this.sessions.set(row.benchId, session);
       if (isWeighing(session.rec.state)) {
-        const rec = interrupt(session.rec, 'The hub restarted during the pour', this.nowIso());
-        session.row = await this.store.writeRecord(
-          session.id,
-          rec,
-          { ...detailFor(rec, detailOf(session.row)), tareLost: true },
-          session.trace,
-        );
-        session.rec = rec;
+        await this.interruptStored(session, 'The hub restarted during the pour');
         this.logger.warn(`Batch ${row.id} on ${row.benchId} interrupted by a hub restart`);
       }
+    }
+  }
+
+  /** Writes a batch interrupted by its hub's going away; the balance's tare is lost with it. */
+  private async interruptStored(session: BenchSession, why: string): Promise<void> {
+    const rec = interrupt(session.rec, why, this.nowIso());
+    session.row = await this.store.writeRecord(
+      session.id,
+      rec,
+      { ...detailFor(rec, detailOf(session.row)), tareLost: true },
+      session.trace,
+    );
+    session.rec = rec;
+  }
+
+  /**
+   * Another hub sharing the server went silent with batches being weighed at its benches: the
+   * one hub that noted it interrupts them (kept, not lost), and the benches' screens hear of it.
+   * Its own hub resumes them after its restart as any interrupted batch. This hub found silent
+   * itself reads its open batches back, as the others wrote them.
+   */
+  @OnHubEvent('hub.lost')
+  async onHubLost(event: HubEventMap['hub.lost']): Promise<void> {
+    try {
+      if (event.self) {
+        await this.reloadOwn();
+        return;
+      }
+      if (!event.takenOver) return;
+      for (const row of await this.store.findOpen(event.hubId)) {
+        const session = sessionFromRow(row);
+        if (!isWeighing(session.rec.state)) continue;
+        await this.interruptStored(
+          session,
+          `The hub "${event.hubId}" that reads this scale stopped answering`,
+        );
+        this.logger.warn(
+          `Batch ${row.id} on ${row.benchId} interrupted: hub ${event.hubId} silent`,
+        );
+        this.announce(session);
+      }
+    } catch (err) {
+      this.logger.error(`Batches of hub ${event.hubId} not interrupted: ${(err as Error).message}`);
+    }
+  }
+
+  private async reloadOwn(): Promise<void> {
+    for (const session of [...this.sessions.values()]) {
+      await this.enqueue(session, async () => {
+        const row = await this.store.findById(session.id);
+        if (!row || row.state === session.row.state) return;
+        Object.assign(session, { ...sessionFromRow(row), queue: session.queue });
+        this.announce(session);
+      });
     }
   }
 

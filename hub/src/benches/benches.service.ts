@@ -1,4 +1,10 @@
-import { Inject, Injectable, Logger, OnApplicationBootstrap } from '@nestjs/common';
+import {
+  Inject,
+  Injectable,
+  Logger,
+  type BeforeApplicationShutdown,
+  type OnApplicationBootstrap,
+} from '@nestjs/common';
 import {
   parseScaleUrl,
   ScaleUrlError,
@@ -12,19 +18,24 @@ import { CLOCK, type Clock } from '../common/clock.js';
 import { Conflict, NotAllowed, NotApplicable, NotFound } from '../common/domain-errors.js';
 import { HubEvents } from '../events/hub-events.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { goneStatus, HubDirectory } from '../hubs/hub-directory.js';
 import { ScalesService } from '../scales/scales.service.js';
-import { BenchesRepository, type NewBenchRow } from './benches.repository.js';
+import { BenchesRepository, type BenchRow, type NewBenchRow } from './benches.repository.js';
 
 /** The bench every hub has from its first start; its scale comes from `TARELINE_SCALE`. */
 export const DEFAULT_BENCH = { id: 'bench-1', name: 'Bench 1' } as const;
+
+/** How often a hub that reads scales looks for benches no hub reads yet (several hubs). */
+const CLAIM_EVERY_MS = 5_000;
 
 /**
  * The benches and their scale links: makes sure the default bench exists, tells the scales
  * service which scale each active bench reads, and lists benches with their live scale state.
  */
 @Injectable()
-export class BenchesService implements OnApplicationBootstrap {
+export class BenchesService implements OnApplicationBootstrap, BeforeApplicationShutdown {
   private readonly logger = new Logger('Benches');
+  private claimTimer: NodeJS.Timeout | undefined;
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -33,23 +44,49 @@ export class BenchesService implements OnApplicationBootstrap {
     @Inject(HubEvents) private readonly events: HubEvents,
     @Inject(AuditRepository) private readonly audit: AuditRepository,
     @Inject(CLOCK) private readonly clock: Clock,
+    @Inject(HubDirectory) private readonly hubs: HubDirectory,
   ) {}
 
   async onApplicationBootstrap(): Promise<void> {
-    await this.insertIfMissing({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name }, null);
-    const rows = await this.repository.listActive();
-    for (const row of rows) {
+    // A hub that reads no scale (`TARELINE_SCALE=none`) owns no bench, not even the default.
+    if (!this.config.hub.readsScales) return;
+    await this.add({ id: DEFAULT_BENCH.id, name: DEFAULT_BENCH.name }, null);
+    await this.claimAndAttach();
+    if (this.hubs.shared) {
+      this.claimTimer = setInterval(() => {
+        this.claimAndAttach().catch((err: unknown) =>
+          this.logger.warn(`Benches not claimed: ${(err as Error).message.split('\n')[0]}`),
+        );
+      }, CLAIM_EVERY_MS);
+    }
+  }
+
+  beforeApplicationShutdown(): void {
+    clearInterval(this.claimTimer);
+  }
+
+  /**
+   * Reads the scales of the benches this hub owns, taking those no hub reads yet (alone on its
+   * embedded database, a hub takes every bench).
+   */
+  private async claimAndAttach(): Promise<void> {
+    await this.repository.claim(this.config.hub.id, !this.hubs.shared);
+    for (const row of await this.repository.listOwned(this.config.hub.id)) {
       if (!this.scales.has(row.id)) {
         await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
       }
     }
   }
 
-  /** Adds a bench unless one with its id exists, and starts reading its scale. */
+  /**
+   * Adds a bench unless one with its id exists, and starts reading its scale when this hub reads
+   * scales (a hub that reads none leaves it to one that does).
+   */
   async add(bench: NewBenchRow, by: Actor): Promise<void> {
-    await this.insertIfMissing(bench, by);
+    const hubId = this.config.hub.readsScales ? this.config.hub.id : null;
+    await this.insertIfMissing({ ...bench, hubId }, by);
     const row = await this.repository.findById(bench.id);
-    if (row?.active && !this.scales.has(row.id)) {
+    if (row?.active && row.hubId === this.config.hub.id && !this.scales.has(row.id)) {
       await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
     }
   }
@@ -91,14 +128,18 @@ export class BenchesService implements OnApplicationBootstrap {
   }
 
   async exists(benchId: string): Promise<boolean> {
-    return (await this.repository.findById(benchId)) !== undefined && this.scales.has(benchId);
+    const row = await this.repository.findById(benchId);
+    return (
+      row !== undefined && (this.scales.has(benchId) || this.hubs.remote(benchId) !== undefined)
+    );
   }
 
   async list(): Promise<BenchSummary[]> {
     const rows = await this.repository.listActive();
     return rows
-      .filter((row) => this.scales.has(row.id))
+      .filter((row) => this.scales.has(row.id) || (this.hubs.shared && row.hubId !== null))
       .map((row) => {
+        if (!this.scales.has(row.id)) return this.remoteSummary(row);
         const capacityG = this.scales.capacityG(row.id);
         return {
           id: row.id,
@@ -115,6 +156,25 @@ export class BenchesService implements OnApplicationBootstrap {
           },
         };
       });
+  }
+
+  /** A bench another hub reads: its scale as that hub last told, offline once it is silent. */
+  private remoteSummary(row: BenchRow): BenchSummary {
+    const scale = this.hubs.remoteScale(row.id) ?? {
+      // Its hub has not told anything yet (it never started since it took the bench).
+      ...goneStatus(row.id, row.hubId ?? '?'),
+      readabilityG: 0.1,
+      transport: this.linkOf(row.id, row.scaleUrl).transport,
+    };
+    return {
+      id: row.id,
+      name: row.name,
+      pinRequired: row.pinRequired,
+      idleSignOutMin: row.idleSignOutMin,
+      repeatabilitySdG: row.repeatabilitySdG,
+      repeatabilityAt: row.repeatabilityAt?.toISOString() ?? null,
+      scale,
+    };
   }
 
   /**

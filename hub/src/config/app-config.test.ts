@@ -22,7 +22,8 @@ describe('loadConfig', () => {
     expect(problems).toHaveLength(3);
     expect(message).toContain('PORT="eighty"');
     expect(message).toContain('LOG_LEVEL="loud"');
-    expect(message).toContain('DATABASE_URL="mysql://x"');
+    // The address may carry the database's password: named, never echoed.
+    expect(message).toContain('DATABASE_URL=(hidden)');
   });
 
   it('refuses a port out of range', () => {
@@ -130,5 +131,50 @@ describe('loadConfig, mail settings', () => {
     expect(message).toContain('TARELINE_PUBLIC_URL="ftp://hub": must be an http:// or https://');
     expect(message).toContain('TARELINE_SUMMARY_HOUR="25": must be an hour from 0 to 23');
     expect(message).not.toContain('secret-pw');
+  });
+
+  describe('several hubs on one server', () => {
+    const secrets = {
+      TARELINE_JWT_SECRET: 'x'.repeat(32),
+      TARELINE_BADGE_KEY: 'y'.repeat(32),
+    };
+
+    it('needs the shared secrets with a server database, and never echoes its address', () => {
+      const url = 'postgres://tareline:db-secret-pw@db:5432/tareline';
+      expect(() => loadConfig({ DATABASE_URL: url })).toThrow(
+        /set TARELINE_JWT_SECRET and TARELINE_BADGE_KEY too, the same on every hub/,
+      );
+      const config = loadConfig({ DATABASE_URL: url, ...secrets });
+      expect(config.database.url).toBe(url);
+      let message = '';
+      try {
+        loadConfig({ DATABASE_URL: 'mysql://tareline:db-secret-pw@db', ...secrets });
+      } catch (e) {
+        message = (e as Error).message;
+      }
+      expect(message).toContain('DATABASE_URL=(hidden): must start with postgres://');
+      expect(message).not.toContain('db-secret-pw');
+    });
+
+    it('names the hub, its address for the others, and whether it reads a scale', () => {
+      const config = loadConfig({
+        TARELINE_HUB_ID: 'hall-b',
+        TARELINE_INTERNAL_URL: 'http://10.0.2.12:3000/',
+        TARELINE_SCALE: 'none',
+      });
+      expect(config.hub).toEqual({
+        id: 'hall-b',
+        internalUrl: 'http://10.0.2.12:3000',
+        readsScales: false,
+      });
+      expect(loadConfig({}).hub).toEqual({
+        id: 'hub-1',
+        internalUrl: undefined,
+        readsScales: true,
+      });
+      expect(() => loadConfig({ TARELINE_HUB_ID: 'hall b/2' })).toThrow(
+        /TARELINE_HUB_ID="hall b\/2"/,
+      );
+    });
   });
 });

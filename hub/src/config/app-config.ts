@@ -17,7 +17,16 @@ export interface AppConfig {
   version: string;
   http: { port: number; host: string };
   data: { dir: string };
+  /** A server PostgreSQL (`postgres://…`); undefined: the embedded PGlite in the data folder. */
   database: { url: string | undefined };
+  hub: {
+    /** This hub's name among the hubs sharing one database (`TARELINE_HUB_ID`). */
+    id: string;
+    /** Where the other hubs reach this one; undefined: its own port on 127.0.0.1. */
+    internalUrl: string | undefined;
+    /** False for `TARELINE_SCALE=none`: a hub that serves screens but reads no scale. */
+    readsScales: boolean;
+  };
   log: { level: LogLevel };
   paths: { migrations: string; station: string };
   batches: { saveDwellMs: number };
@@ -46,6 +55,9 @@ export interface AppConfig {
   };
 }
 
+/** `TARELINE_SCALE=none`: the hub reads no scale (another hub on the same database does). */
+export const NO_SCALE = 'none';
+
 const portSchema = z.coerce
   .number({ error: 'must be a number' })
   .int('must be a whole number')
@@ -62,6 +74,13 @@ const envSchema = z.object({
   DATABASE_URL: z
     .string()
     .refine((v) => v === '' || /^postgres(ql)?:\/\//.test(v), 'must start with postgres://')
+    .optional(),
+  TARELINE_HUB_ID: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9._-]{0,39}$/i, 'must be letters, digits, dots, dashes (at most 40)')
+    .default('hub-1'),
+  TARELINE_INTERNAL_URL: z
+    .url({ protocol: /^https?$/, error: 'must be an http:// or https:// address' })
     .optional(),
   TARELINE_STATION_DIR: z.string().min(1).optional(),
   TARELINE_SAVE_DWELL_MS: z.coerce
@@ -89,6 +108,7 @@ const envSchema = z.object({
     .string()
     .default('sim://')
     .superRefine((url, ctx) => {
+      if (url === NO_SCALE) return;
       try {
         parseScaleUrl(url);
       } catch (err) {
@@ -128,6 +148,8 @@ function isSmtpUrl(value: string): boolean {
 }
 
 const SECRET_VARIABLES = new Set([
+  // A server address carries the database's password.
+  'DATABASE_URL',
   // An SMTP address carries the server's password.
   'TARELINE_SMTP_URL',
   'TARELINE_JWT_SECRET',
@@ -172,9 +194,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     );
   }
   const e = result.data;
-  if (e.DATABASE_URL) {
+  if (e.DATABASE_URL && (!e.TARELINE_JWT_SECRET || !e.TARELINE_BADGE_KEY)) {
+    // Hubs sharing a database must sign sessions and hash badges alike: secrets kept in each
+    // hub's own data folder would differ.
     throw new ConfigError([
-      'DATABASE_URL: a server PostgreSQL is not supported yet; unset it to use the embedded database',
+      'DATABASE_URL is set: set TARELINE_JWT_SECRET and TARELINE_BADGE_KEY too, the same on every hub',
     ]);
   }
   if (Boolean(e.TARELINE_ADMIN_EMAIL) !== Boolean(e.TARELINE_ADMIN_PASSWORD)) {
@@ -187,6 +211,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     http: { port: e.PORT, host: e.HOST },
     data: { dir: resolve(e.TARELINE_DATA_DIR) },
     database: { url: e.DATABASE_URL },
+    hub: {
+      id: e.TARELINE_HUB_ID,
+      internalUrl: e.TARELINE_INTERNAL_URL?.replace(/\/+$/, ''),
+      readsScales: e.TARELINE_SCALE !== NO_SCALE,
+    },
     log: { level: e.LOG_LEVEL },
     paths: {
       migrations: resolve(hubRoot, '..', 'drizzle'),
@@ -206,7 +235,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
           : undefined,
     },
     demo: { enabled: e.TARELINE_DEMO === '1' },
-    scale: { url: e.TARELINE_SCALE, link: parseScaleUrl(e.TARELINE_SCALE) },
+    scale: {
+      url: e.TARELINE_SCALE,
+      // A hub without a scale never attaches one; the simulator's link stands in as the default.
+      link: parseScaleUrl(e.TARELINE_SCALE === NO_SCALE ? 'sim://' : e.TARELINE_SCALE),
+    },
     mail: {
       smtpUrl: e.TARELINE_SMTP_URL,
       from: e.TARELINE_MAIL_FROM,

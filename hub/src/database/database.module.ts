@@ -9,8 +9,16 @@ import { Database } from './database.js';
       provide: Database,
       inject: [APP_CONFIG],
       useFactory: async (config: AppConfig): Promise<Database> => {
-        const database = await Database.open(config.data.dir, config.paths.migrations);
-        new Logger('Database').log(`Embedded PostgreSQL open in ${config.data.dir}`);
+        const database = await Database.open(
+          config.data.dir,
+          config.paths.migrations,
+          config.database.url,
+        );
+        new Logger('Database').log(
+          database.driver === 'pglite'
+            ? `Embedded PostgreSQL open in ${config.data.dir}`
+            : `PostgreSQL server open (hub ${config.hub.id})`,
+        );
         return database;
       },
     },
@@ -22,6 +30,6 @@ export class DatabaseModule implements OnApplicationShutdown {
 
   async onApplicationShutdown(): Promise<void> {
     await this.database.close();
-    new Logger('Database').log('Embedded PostgreSQL closed');
+    new Logger('Database').log('Database closed');
   }
 }

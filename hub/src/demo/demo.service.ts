@@ -1,7 +1,7 @@
 import { Inject, Injectable, Logger, type OnApplicationBootstrap } from '@nestjs/common';
 import { lotInputSchema, materialInputSchema } from '@tareline/protocol';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { Database, type Db } from '../database/database.js';
+import { ADVISORY_LOCKS, Database, type Db } from '../database/database.js';
 import { PeopleRepository } from '../people/people.repository.js';
 import { PeopleService } from '../people/people.service.js';
 import { BenchesService } from '../benches/benches.service.js';
@@ -60,6 +60,11 @@ export class DemoService implements OnApplicationBootstrap {
   }
 
   async onApplicationBootstrap(): Promise<void> {
+    // Hubs sharing a server that start together: the first seeds, the others then find people.
+    await this.database.underLock(ADVISORY_LOCKS.startup, () => this.seedIfEmpty());
+  }
+
+  private async seedIfEmpty(): Promise<void> {
     if ((await this.peopleStore.count()) > 0) return;
     const admin = this.config.auth.firstAdmin;
     if (admin) {

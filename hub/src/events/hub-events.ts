@@ -30,6 +30,11 @@ export interface HubEventMap {
     steps: SimulatorStep[];
     at: string;
   };
+  /**
+   * A hub sharing the database went silent (`self`: this hub was found silent by another). Its
+   * benches are offline; `takenOver` for the one hub that interrupts its open batches.
+   */
+  'hub.lost': { hubId: string; benchIds: string[]; takenOver: boolean; self: boolean };
 }
 
 export type HubEventName = keyof HubEventMap;

@@ -20,14 +20,14 @@ export class HealthService {
         status: 'ok',
         version: this.config.version,
         uptimeS,
-        db: { ok: true, driver: 'pglite' },
+        db: { ok: true, driver: this.database.driver },
       };
     } catch (err) {
       return {
         status: 'degraded',
         version: this.config.version,
         uptimeS,
-        db: { ok: false, driver: 'pglite', detail: (err as Error).message },
+        db: { ok: false, driver: this.database.driver, detail: (err as Error).message },
       };
     }
   }

@@ -6,7 +6,12 @@ import {
   WebSocketGateway,
   WebSocketServer,
 } from '@nestjs/websockets';
-import { LIVE_NAMESPACE, type LiveClientEvents, type LiveServerEvents } from '@tareline/protocol';
+import {
+  LIVE_NAMESPACE,
+  type LiveClientEvents,
+  type LiveServerEvents,
+  type ReadingEvent,
+} from '@tareline/protocol';
 import type { Namespace, Socket } from 'socket.io';
 import {
   SOCKET_AUTHENTICATOR,
@@ -14,6 +19,7 @@ import {
   type SocketAuthenticator,
   type SocketPrincipal,
 } from '../auth/socket-authenticator.js';
+import { HubDirectory } from '../hubs/hub-directory.js';
 import { ScalesService } from '../scales/scales.service.js';
 
 interface LiveSocketData {
@@ -21,13 +27,19 @@ interface LiveSocketData {
   principal: SocketPrincipal;
 }
 
-type LiveNamespace = Namespace<
-  LiveClientEvents,
-  LiveServerEvents,
-  Record<string, never>,
-  LiveSocketData
->;
-type LiveSocket = Socket<LiveClientEvents, LiveServerEvents, Record<string, never>, LiveSocketData>;
+/** Between hubs sharing a server: the readings one hub read, in batches. */
+interface BetweenHubs {
+  readings: (readings: ReadingEvent[]) => void;
+}
+
+type LiveNamespace = Namespace<LiveClientEvents, LiveServerEvents, BetweenHubs, LiveSocketData>;
+type LiveSocket = Socket<LiveClientEvents, LiveServerEvents, BetweenHubs, LiveSocketData>;
+
+/**
+ * How long readings for the other hubs are gathered before they go as one message: a message
+ * per reading (2,000 a second for 100 benches) would queue up in the database for seconds.
+ */
+export const READINGS_BATCH_MS = 20;
 
 /**
  * How often open sockets are asked again whether their person may still watch: a person switched
@@ -56,6 +68,8 @@ export class LiveGateway
   private readonly expiryTimers = new Map<string, NodeJS.Timeout>();
   private recheckTimer: NodeJS.Timeout | undefined;
   private stopWatchingSessions: (() => void) | undefined;
+  private outgoing: ReadingEvent[] = [];
+  private flushTimer: NodeJS.Timeout | undefined;
 
   @WebSocketServer()
   private readonly server!: LiveNamespace;
@@ -63,6 +77,7 @@ export class LiveGateway
   constructor(
     @Inject(SOCKET_AUTHENTICATOR) private readonly authenticator: SocketAuthenticator,
     @Inject(ScalesService) private readonly scales: ScalesService,
+    @Inject(HubDirectory) private readonly hubs: HubDirectory,
   ) {}
 
   afterInit(namespace: LiveNamespace): void {
@@ -75,7 +90,9 @@ export class LiveGateway
         next(new Error("Name the bench in the handshake: io('/live', { query: { benchId } })"));
         return;
       }
-      if (!this.scales.has(benchId)) {
+      // A bench whose scale another hub reads is watched here all the same: its events come
+      // through the database (the socket.io PostgreSQL adapter).
+      if (!this.scales.has(benchId) && !this.hubs.remote(benchId)) {
         next(new Error(`There is no bench "${benchId}"`));
         return;
       }
@@ -92,6 +109,13 @@ export class LiveGateway
         },
       );
     });
+    if (this.hubs.shared) {
+      namespace.on('readings', (readings) => {
+        for (const reading of readings) {
+          namespace.local.to(benchRoom(reading.benchId)).emit('reading', reading);
+        }
+      });
+    }
     this.recheckTimer = setInterval(() => this.recheckSoon(), RECHECK_EVERY_MS);
     this.recheckTimer.unref();
     this.stopWatchingSessions = this.authenticator.onSessionEnded(() => this.recheckSoon());
@@ -109,6 +133,14 @@ export class LiveGateway
       socket.emit('scaleStatus', this.scales.status(benchId));
       const latest = this.scales.latest(benchId);
       if (latest) socket.emit('reading', latest);
+      return;
+    }
+    const remote = this.hubs.remote(benchId);
+    const scale = this.hubs.remoteScale(benchId);
+    if (remote && scale) {
+      socket.emit('scaleStatus', { benchId, state: scale.state, detail: scale.detail });
+      // The newest reading its hub told (up to a heartbeat old); live ones follow.
+      if (remote.alive && remote.snapshot.latest) socket.emit('reading', remote.snapshot.latest);
     }
   }
 
@@ -126,9 +158,36 @@ export class LiveGateway
     this.server?.to(benchRoom(benchId)).emit(event, ...payload);
   }
 
+  /**
+   * Sends a reading to every screen watching its bench: at once to this hub's, and gathered for
+   * a few milliseconds into one message to the other hubs sharing the server (in order: one
+   * connection sends them).
+   */
+  emitReading(reading: ReadingEvent): void {
+    this.emitToBenchHere(reading.benchId, 'reading', reading);
+    if (!this.hubs.shared) return;
+    this.outgoing.push(reading);
+    this.flushTimer ??= setTimeout(() => {
+      this.flushTimer = undefined;
+      const readings = this.outgoing;
+      this.outgoing = [];
+      this.server?.serverSideEmit('readings', readings);
+    }, READINGS_BATCH_MS);
+  }
+
+  /** Sends an event to the screens watching a bench through this hub only (not the others). */
+  emitToBenchHere<E extends keyof LiveServerEvents>(
+    benchId: string,
+    event: E,
+    ...payload: Parameters<LiveServerEvents[E]>
+  ): void {
+    this.server?.local.to(benchRoom(benchId)).emit(event, ...payload);
+  }
+
   /** Stops the periodic re-check (the app is closing). */
   close(): void {
     clearInterval(this.recheckTimer);
+    clearTimeout(this.flushTimer);
     this.stopWatchingSessions?.();
     for (const timer of this.expiryTimers.values()) clearTimeout(timer);
     this.expiryTimers.clear();
@@ -141,7 +200,9 @@ export class LiveGateway
   }
 
   private async recheck(): Promise<void> {
-    const sockets = await this.server.fetchSockets();
+    // This hub's own sockets: each hub re-checks its own (asking the others would wait on a
+    // silent hub).
+    const sockets = await this.server.local.fetchSockets();
     for (const socket of sockets) {
       const ok = await this.authenticator.stillValid(socket.data.principal).catch(() => false);
       if (!ok) socket.disconnect(true);

@@ -1,6 +1,7 @@
 import { Inject, Injectable, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
 import type { BatchEvent, PourEvent, ReadingEvent, ScaleStatusEvent } from '@tareline/protocol';
-import { OnHubEvent } from '../events/hub-events.js';
+import { OnHubEvent, type HubEventMap } from '../events/hub-events.js';
+import { goneStatus } from '../hubs/hub-directory.js';
 import { ScalesService } from '../scales/scales.service.js';
 import { LiveGateway } from './live.gateway.js';
 import { TrailingThrottle } from './reading-throttle.js';
@@ -30,7 +31,7 @@ export class LiveService implements OnModuleInit, OnApplicationShutdown {
   private follow(benchId: string): void {
     this.throttles.get(benchId)?.dispose();
     const throttle = new TrailingThrottle<ReadingEvent>(1000 / MAX_READINGS_PER_S, (reading) =>
-      this.gateway.emitToBench(benchId, 'reading', reading),
+      this.gateway.emitReading(reading),
     );
     this.throttles.set(benchId, throttle);
     this.scales.onReading(benchId, (reading) => throttle.push(reading));
@@ -49,6 +50,15 @@ export class LiveService implements OnModuleInit, OnApplicationShutdown {
   @OnHubEvent('pour.judged')
   onPourJudged(event: PourEvent): void {
     this.gateway.emitToBench(event.benchId, 'pour', event);
+  }
+
+  /** A silent hub's benches, watched through this hub, go offline on the screens at once. */
+  @OnHubEvent('hub.lost')
+  onHubLost(event: HubEventMap['hub.lost']): void {
+    if (event.self) return;
+    for (const benchId of event.benchIds) {
+      this.gateway.emitToBenchHere(benchId, 'scaleStatus', goneStatus(benchId, event.hubId));
+    }
   }
 
   onApplicationShutdown(): void {

@@ -1,8 +1,9 @@
 import 'reflect-metadata';
-import { access, cp, mkdtemp, readdir, rm, writeFile } from 'node:fs/promises';
+import { access, cp, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { INestApplication } from '@nestjs/common';
+import pg from 'pg';
 import lockfile from 'proper-lockfile';
 import { inject } from 'vitest';
 import { createApp } from '../../src/app.js';
@@ -35,7 +36,20 @@ export async function startTestHub(
   env: Record<string, string> = {},
   options: { template?: 'auto' | 'none' } = {},
 ): Promise<TestHub> {
-  if (options.template !== 'none' && (await isEmpty(dataDir))) {
+  const pgAdminUrl = providedPgAdminUrl();
+  if (pgAdminUrl && !env.DATABASE_URL) {
+    // The PostgreSQL suite: the same hub on a server database of its own.
+    // A hub started again on the same folder finds the same database, as a restart would.
+    const remembered = join(dataDir, 'test-database-url');
+    let url = await readFile(remembered, 'utf8').catch(() => undefined);
+    if (!url) {
+      const kind = env.TARELINE_DEMO === '0' ? 'migrated' : 'demo';
+      const template = options.template === 'none' ? undefined : await templateDatabase(kind);
+      url = await createDatabase(pgAdminUrl, template);
+      await writeFile(remembered, url);
+    }
+    env = { ...serverEnv(url), ...env };
+  } else if (!env.DATABASE_URL && options.template !== 'none' && (await isEmpty(dataDir))) {
     const template = await templateFolder(env.TARELINE_DEMO === '0' ? 'migrated' : 'demo');
     if (template) await cp(template, dataDir, { recursive: true });
   }
@@ -55,6 +69,105 @@ export async function startTestHub(
     url: `http://127.0.0.1:${address.port}`,
     close: () => app.close(),
   };
+}
+
+/** The run's throwaway PostgreSQL server (the PostgreSQL suite), else undefined. */
+export function providedPgAdminUrl(): string | undefined {
+  try {
+    return inject('pgAdminUrl') || undefined;
+  } catch {
+    return undefined;
+  }
+}
+
+/** Secrets every hub on one server shares (a server database requires them set). */
+export const SHARED_SECRETS = {
+  TARELINE_JWT_SECRET: 'test-jwt-secret-shared-by-every-hub-0123456789',
+  TARELINE_BADGE_KEY: 'test-badge-key-shared-by-every-hub-0123456789',
+} as const;
+
+/** The environment of a hub on the server database `url`. */
+export function serverEnv(url: string): Record<string, string> {
+  return { DATABASE_URL: url, ...SHARED_SECRETS };
+}
+
+/** A new, empty database on the run's server (a copy of `template` when named); its URL. */
+export async function createDatabase(adminUrl: string, template?: string): Promise<string> {
+  const name = `t_${Date.now().toString(36)}_${Math.random().toString(36).slice(2, 8)}`;
+  const client = new pg.Client({ connectionString: adminUrl });
+  await client.connect();
+  try {
+    for (let attempt = 1; ; attempt += 1) {
+      try {
+        await client.query(`create database ${name}${template ? ` template ${template}` : ''}`);
+        break;
+      } catch (err) {
+        // Two copies of one template at the same moment: the second waits its turn.
+        if (attempt >= 20 || !/being accessed by other users/.test((err as Error).message)) {
+          throw err;
+        }
+        await new Promise((r) => setTimeout(r, 100 * attempt));
+      }
+    }
+  } finally {
+    await client.end();
+  }
+  const url = new URL(adminUrl);
+  url.pathname = `/${name}`;
+  return url.toString();
+}
+
+/**
+ * A database migrated (and seeded, for `demo`) once per run, to copy as a template: the
+ * server-side twin of {@link templateFolder}.
+ */
+async function templateDatabase(kind: 'demo' | 'migrated'): Promise<string> {
+  const adminUrl = providedPgAdminUrl()!;
+  const root = inject('dataTemplatesDir');
+  const name = `tpl_${kind}`;
+  const ready = join(root, `${name}.ready`);
+  const release = await lockfile.lock(root, {
+    lockfilePath: join(root, `${name}.lock`),
+    realpath: false,
+    stale: 300_000,
+    update: 10_000,
+    retries: { retries: 3000, minTimeout: 50, maxTimeout: 200 },
+    onCompromised: () => undefined,
+  });
+  try {
+    const made = await access(ready).then(
+      () => true,
+      () => false,
+    );
+    if (!made) {
+      const url = new URL(adminUrl);
+      url.pathname = `/${name}`;
+      const client = new pg.Client({ connectionString: adminUrl });
+      await client.connect();
+      await client.query(`create database ${name}`).finally(() => client.end());
+      const data = await tempDataDir();
+      try {
+        const hub = await startTestHub(
+          data.dir,
+          { ...serverEnv(url.toString()), ...(kind === 'migrated' ? { TARELINE_DEMO: '0' } : {}) },
+          { template: 'none' },
+        );
+        await hub.close();
+      } finally {
+        await data.remove();
+      }
+      // Copies start with no hub known and no bench taken: each test's hubs take them.
+      const template = new pg.Client({ connectionString: url.toString() });
+      await template.connect();
+      await template
+        .query('delete from hubs; update benches set hub_id = null')
+        .finally(() => template.end());
+      await writeFile(ready, '');
+    }
+  } finally {
+    await release();
+  }
+  return name;
 }
 
 /** Fills an empty folder with a copy of the run's migrated template (no demo shop). */

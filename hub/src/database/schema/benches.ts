@@ -22,6 +22,11 @@ export const benches = pgTable('benches', {
   pinRequired: boolean('pin_required').notNull().default(false),
   /** Minutes without a touch before the bench signs its operator out. */
   idleSignOutMin: integer('idle_sign_out_min').notNull().default(5),
+  /**
+   * The hub whose process reads this bench's scale (`TARELINE_HUB_ID`); null until a hub that
+   * reads scales claims it. Intents at the bench are handled by that hub.
+   */
+  hubId: text('hub_id'),
   active: boolean('active').notNull().default(true),
   /** Hours a passed scale check stays good; null: no routine checks asked of this bench. */
   checkEveryHours: integer('check_every_hours'),

@@ -10,3 +10,4 @@ export * from './accuracy.js';
 export * from './pour-plans.js';
 export * from './documents.js';
 export * from './scale-checks.js';
+export * from './hubs.js';
