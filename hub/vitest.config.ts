@@ -6,7 +6,8 @@ export default defineConfig({
   test: {
     include: ['src/**/*.test.ts', 'test/**/*.test.ts'],
     // Pseudo-terminal tests need socat from Debian: they run in `npm run test:e2e`.
-    exclude: ['test/**/*.pty.test.ts', 'test/faults/**'],
+    // Several hubs on one server need a PostgreSQL server: those run in vitest.pg.config.ts.
+    exclude: ['test/**/*.pty.test.ts', 'test/**/*.pg.test.ts', 'test/faults/**'],
     // A folder for the data templates the test hubs start from (test/support/test-app.ts).
     globalSetup: ['test/support/global-setup.ts'],
     // Each e2e-style test opens its own PGlite; two at a time is what 2 cores take.

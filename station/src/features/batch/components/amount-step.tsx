@@ -77,13 +77,16 @@ export function AmountStep({
       label: material.partLabels[i] ?? `Part ${'ABC'[i]}`,
     }));
   }, [typedG, material]);
+  const repeatabilitySdG = bench?.repeatabilitySdG;
   const planScale = useMemo(
     () =>
       scale && {
         readabilityG: scale.readabilityG,
         ...(scale.capacityG !== undefined && { capacityG: scale.capacityG }),
+        // The bench's measured repeatability, as the hub's own fitness check uses it.
+        ...(repeatabilitySdG != null && { repeatabilityG: repeatabilitySdG }),
       },
-    [scale],
+    [scale, repeatabilitySdG],
   );
   const error = errors.totalMassG?.message;
 
