@@ -64,6 +64,29 @@ describe('live socket sessions on a running hub', () => {
     await dropped;
     expect(leadSocket.connected).toBe(true);
   });
+
+  it('tells a desk who is signed in at the bench, as people come and go', async () => {
+    const lead = await login(hub, DEMO.lead.email, DEMO.lead.password);
+    const leadSocket = await connected(lead);
+    const seen: { people: { name: string }[] }[] = [];
+    leadSocket.on('presence', (e) => seen.push(e));
+    const latest = (names: string[]) =>
+      vi.waitFor(() => expect(seen.at(-1)?.people.map((p) => p.name)).toEqual(names), 5_000);
+    const joss = (await badgeSignIn(hub, DEMO.joss.badge)).body.token;
+    const bench = await connected(joss);
+    await latest(['Joss Whitcombe']);
+    // A second desk watching is not someone at the bench; a second screen of Joss's is the same
+    // person.
+    await connected(await login(hub, DEMO.admin.email, DEMO.admin.password));
+    await connected(joss);
+    await latest(['Joss Whitcombe']);
+    const before = seen.length;
+    bench.disconnect();
+    await vi.waitFor(() => expect(seen.length).toBeGreaterThan(before), 5_000);
+    await latest(['Joss Whitcombe']);
+    for (const s of sockets.filter((x) => x !== leadSocket)) s.disconnect();
+    await latest([]);
+  });
 });
 
 describe('live gateway session re-check', () => {

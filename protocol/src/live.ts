@@ -1,3 +1,4 @@
+import { z } from 'zod';
 import type { BatchEvent, PourEvent } from './batches.js';
 import type { ReadingEvent, ScaleStatusEvent } from './scale/types.js';
 
@@ -15,7 +16,19 @@ export interface LiveServerEvents {
   batch: (event: BatchEvent) => void;
   /** The hub's judgement of the latest reading against the active pour. */
   pour: (event: PourEvent) => void;
+  /** Who is signed in at the bench itself (its own screen), sent on connect and on each change. */
+  presence: (event: BenchPresenceEvent) => void;
 }
+
+/**
+ * The people whose bench screen is open at a bench (signed in there by badge), one entry each
+ * however many screens they have open; people watching from a desk are not listed.
+ */
+export const benchPresenceEventSchema = z.object({
+  benchId: z.string(),
+  people: z.array(z.object({ id: z.string(), name: z.string() })),
+});
+export type BenchPresenceEvent = z.infer<typeof benchPresenceEventSchema>;
 
 /** Events the station may send on `/live` (intents only; the hub decides). */
 export interface LiveClientEvents {

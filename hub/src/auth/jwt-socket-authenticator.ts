@@ -44,6 +44,7 @@ export class JwtSocketAuthenticator implements SocketAuthenticator {
         role: user.role,
         expiresAt: user.expiresAt,
         tokenId: user.tokenId,
+        atBench: user.benchId === handshake.benchId,
       };
       return principal;
     } catch (err) {

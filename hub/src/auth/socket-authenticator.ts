@@ -7,6 +7,8 @@ export interface SocketPrincipal {
   role: Role;
   /** Epoch ms when the token runs out; the gateway disconnects the socket then. */
   expiresAt: number;
+  /** Signed in at this very bench (its own screen), not watching it from a desk. */
+  atBench?: boolean;
 }
 
 /**

@@ -29,7 +29,9 @@ export class DatabaseModule implements OnApplicationShutdown {
   constructor(@Inject(Database) private readonly database: Database) {}
 
   async onApplicationShutdown(): Promise<void> {
+    const what =
+      this.database.driver === 'pglite' ? 'Embedded PostgreSQL' : 'PostgreSQL connections';
     await this.database.close();
-    new Logger('Database').log('Database closed');
+    new Logger('Database').log(`${what} closed`);
   }
 }

@@ -8,6 +8,7 @@ import {
 } from '@nestjs/websockets';
 import {
   LIVE_NAMESPACE,
+  type BenchPresenceEvent,
   type LiveClientEvents,
   type LiveServerEvents,
   type ReadingEvent,
@@ -124,6 +125,9 @@ export class LiveGateway
   async handleConnection(socket: LiveSocket): Promise<void> {
     const { benchId, principal } = socket.data;
     await socket.join(benchRoom(benchId));
+    // Someone at the bench: every screen watching it learns; anyone else: this screen alone.
+    if (principal.atBench) this.announcePresence(benchId);
+    else this.tellPresence(benchId, socket);
     const untilExpiry = principal.expiresAt - Date.now();
     if (untilExpiry < MAX_TIMER_MS) {
       const timer = setTimeout(() => socket.disconnect(true), Math.max(0, untilExpiry));
@@ -147,6 +151,37 @@ export class LiveGateway
   handleDisconnect(socket: LiveSocket): void {
     clearTimeout(this.expiryTimers.get(socket.id));
     this.expiryTimers.delete(socket.id);
+    // socket.io has taken the socket out of its rooms by now, so it is no longer counted.
+    const { benchId, principal } = socket.data ?? {};
+    if (benchId && principal?.atBench) this.announcePresence(benchId);
+  }
+
+  /**
+   * Who has the bench's own screen open, from the sockets in its room: on every hub sharing the
+   * server too (the adapter asks them), one entry a person.
+   */
+  private async presenceOf(benchId: string): Promise<BenchPresenceEvent> {
+    const sockets = await this.server.in(benchRoom(benchId)).fetchSockets();
+    const people = new Map<string, string>();
+    for (const s of sockets) {
+      const principal = (s.data as Partial<LiveSocketData>).principal;
+      if (principal?.atBench) people.set(principal.userId, principal.name);
+    }
+    return { benchId, people: [...people].map(([id, name]) => ({ id, name })) };
+  }
+
+  private announcePresence(benchId: string): void {
+    this.presenceOf(benchId).then(
+      (event) => this.emitToBench(benchId, 'presence', event),
+      (err: unknown) => this.logger.warn(`${benchId}: presence not sent: ${String(err)}`),
+    );
+  }
+
+  private tellPresence(benchId: string, socket: LiveSocket): void {
+    this.presenceOf(benchId).then(
+      (event) => socket.emit('presence', event),
+      (err: unknown) => this.logger.warn(`${benchId}: presence not sent: ${String(err)}`),
+    );
   }
 
   /** Sends an event to every screen watching a bench. */

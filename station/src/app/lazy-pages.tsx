@@ -69,6 +69,11 @@ export const CheckNotice = lazy(() =>
     default: m.CheckNotice,
   })),
 );
+export const CheckLink = lazy(() =>
+  import('../features/scale-checks/components/check-notice').then((m) => ({
+    default: m.CheckLink,
+  })),
+);
 // A demo and training aid, folded below the bench flow: not needed for the first paint.
 export const SimulatorPanel = lazy(() =>
   import('../features/simulator/components/simulator-panel').then((m) => ({

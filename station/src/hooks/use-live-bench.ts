@@ -1,5 +1,7 @@
 import {
   batchEventSchema,
+  benchPresenceEventSchema,
+  type BenchPresenceEvent,
   LIVE_NAMESPACE,
   pourEventSchema,
   readingEventSchema,
@@ -27,6 +29,8 @@ export interface LiveBench {
   batchEvent: BatchEvent | undefined;
   /** The hub's newest judgement of a reading against the active pour; undefined until one. */
   pour: PourEvent | undefined;
+  /** Who has the bench's own screen open; undefined until the hub says. */
+  presence: BenchPresenceEvent | undefined;
 }
 
 type LiveSocket = Socket<LiveServerEvents, LiveClientEvents>;
@@ -82,6 +86,10 @@ export function useLiveBench(benchId: string, options: { token?: string } = {}):
       const parsed = pourEventSchema.safeParse(event);
       if (parsed.success && parsed.data.benchId === benchId) update({ pour: parsed.data });
     });
+    socket.on('presence', (event) => {
+      const parsed = benchPresenceEventSchema.safeParse(event);
+      if (parsed.success && parsed.data.benchId === benchId) update({ presence: parsed.data });
+    });
     return () => {
       socket.removeAllListeners();
       socket.disconnect();
@@ -101,5 +109,6 @@ function initial(benchId: string): { benchId: string } & LiveBench {
     refused: undefined,
     batchEvent: undefined,
     pour: undefined,
+    presence: undefined,
   };
 }

@@ -4,7 +4,7 @@ import { BenchFlow } from '../../features/batch/components/bench-flow';
 import { PotLifeReminder } from '../../features/batch/components/pot-life-reminder';
 import { useBenches } from '../../lib/benches';
 import { useSession } from '../../lib/auth';
-import { CheckNotice, SimulatorPanel, VolumeEstimator } from '../lazy-pages';
+import { CheckLink, CheckNotice, SimulatorPanel, VolumeEstimator } from '../lazy-pages';
 
 /** The planner's volume estimator inside the bench flow's amount step, loaded when opened. */
 function BenchEstimator(props: ComponentProps<typeof VolumeEstimator>) {
@@ -39,6 +39,11 @@ export function BenchHomeRoute() {
         <BenchFlow key={benchId} benchId={benchId} estimator={BenchEstimator} />
       ) : (
         <p className="text-xl">Sign in at a bench to weigh a batch.</p>
+      )}
+      {benchId && (
+        <Suspense fallback={null}>
+          <CheckLink benchId={benchId} />
+        </Suspense>
       )}
       {benchId && bench?.scale.transport === 'simulated' && (
         // Below the flow and folded: a demo and training aid, not part of a real pour.

@@ -66,5 +66,18 @@ describe('benches overview', () => {
     });
     expect(within(front).getByText('NO-GO')).toBeInTheDocument();
     expect(within(front).queryByText(/: over/)).toBeNull();
+
+    // Who is signed in at each bench, as the hub tells it; another bench's event is ignored.
+    socketOf('bench-1').fire('presence', {
+      benchId: 'bench-1',
+      people: [{ id: 'p-joss', name: 'Joss Whitcombe' }],
+    });
+    socketOf('bench-2').fire('presence', { benchId: 'bench-2', people: [] });
+    socketOf('bench-2').fire('presence', {
+      benchId: 'bench-1',
+      people: [{ id: 'p-tomas', name: 'Tomas Reyl' }],
+    });
+    expect(within(front).getByText(/Signed in:/)).toHaveTextContent('Signed in: Joss Whitcombe');
+    expect(within(casting).getByText('Nobody signed in at the bench')).toBeInTheDocument();
   });
 });

@@ -72,6 +72,20 @@ function BenchCard({ bench }: { bench: BenchSummary }) {
         </span>
       </div>
       {live.refused && <p role="alert">{live.refused}</p>}
+      {live.presence && (
+        <p className="text-lg">
+          {live.presence.people.length === 0 ? (
+            <span className="text-muted">Nobody signed in at the bench</span>
+          ) : (
+            <>
+              Signed in:{' '}
+              <span className="font-semibold">
+                {live.presence.people.map((p) => p.name).join(', ')}
+              </span>
+            </>
+          )}
+        </p>
+      )}
       {!batch && <p className="text-muted">No batch yet.</p>}
       {batch && (
         <div className="space-y-1 text-lg">

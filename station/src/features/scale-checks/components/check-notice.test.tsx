@@ -3,7 +3,7 @@ import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { stubHub } from '../../../testing/fake-hub';
 import { renderRoutes } from '../../../testing/render';
-import { CheckNotice } from './check-notice';
+import { CheckLink, CheckNotice } from './check-notice';
 
 const quiet: BenchCheckStatus = {
   benchId: 'bench-1',
@@ -27,7 +27,20 @@ const quiet: BenchCheckStatus = {
 
 function at(status: BenchCheckStatus) {
   stubHub({ 'GET /benches/bench-1/check-status': () => [200, status] });
-  renderRoutes([{ path: '*', element: <CheckNotice benchId="bench-1" /> }], '/bench');
+  renderRoutes(
+    [
+      {
+        path: '*',
+        element: (
+          <>
+            <CheckNotice benchId="bench-1" />
+            <CheckLink benchId="bench-1" />
+          </>
+        ),
+      },
+    ],
+    '/bench',
+  );
 }
 
 describe('the scale check notice at sign-in', () => {
@@ -45,6 +58,8 @@ describe('the scale check notice at sign-in', () => {
       'href',
       '/bench/bench-1/checks',
     );
+    // The notice's own button is the one way to the check then.
+    expect(screen.getAllByRole('link')).toHaveLength(1);
   });
 
   it('names an overdue calibration date', async () => {

@@ -3,18 +3,12 @@ import { useCheckStatus } from '../api/scale-checks';
 
 /**
  * What the bench says at sign-in when its scale wants a check (due, or the last one failed) or
- * its calibration date has come: in words, with the way to the check. Otherwise only the way.
+ * its calibration date has come: in words, with the way to the check. Nothing otherwise: the
+ * flow starts at the top of the screen ({@link CheckLink} is the way to a check then).
  */
 export function CheckNotice({ benchId }: { benchId: string }) {
   const status = useCheckStatus(benchId).data;
-  if (!status) return null;
-  if (!status.message && !status.calibrationOverdue) {
-    return (
-      <Link to={`/bench/${encodeURIComponent(benchId)}/checks`} className="text-lg underline">
-        Check the scale with a reference weight
-      </Link>
-    );
-  }
+  if (!status || (!status.message && !status.calibrationOverdue)) return null;
   return (
     <div
       role="status"
@@ -33,5 +27,19 @@ export function CheckNotice({ benchId }: { benchId: string }) {
         </Link>
       )}
     </div>
+  );
+}
+
+/** The way to a check when none is due: below the flow, a button-sized link for gloved hands. */
+export function CheckLink({ benchId }: { benchId: string }) {
+  const status = useCheckStatus(benchId).data;
+  if (!status || status.message) return null;
+  return (
+    <Link
+      to={`/bench/${encodeURIComponent(benchId)}/checks`}
+      className="inline-flex min-h-14 items-center rounded-xl border-2 border-line px-4 text-lg font-semibold"
+    >
+      Check the scale with a reference weight
+    </Link>
   );
 }
