@@ -6,7 +6,7 @@ import {
 } from '@tareline/protocol';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { SelectField } from '../../../components/form/field';
 import { apiRequest } from '../../../lib/api-client';
 import { hasRole, useSession } from '../../../lib/auth';
@@ -35,6 +35,13 @@ export function MaterialDocumentsPage() {
   const mayUpload = hasRole(useSession(), ['lead', 'admin']);
   return (
     <section aria-labelledby="docs-title" className="mx-auto max-w-5xl">
+      {mayUpload && (
+        <p className="text-lg">
+          <Link className="underline" to="/materials">
+            Materials, lots and stock
+          </Link>
+        </p>
+      )}
       <h1 id="docs-title" className="text-3xl font-bold">
         Data sheets{material.data ? `: ${material.data.name}` : ''}
       </h1>
