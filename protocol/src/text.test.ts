@@ -125,7 +125,14 @@ const REQUESTS: [string, z.ZodType, unknown][] = [
   [
     'lot',
     lotInputSchema,
-    { materialId: 'm-1', part: 0, code: 'L-2231', expiresOn: '2027-03-31', openedOn: '2026-01-05' },
+    {
+      materialId: 'm-1',
+      part: 0,
+      code: 'L-2231',
+      expiresOn: '2027-03-31',
+      openedOn: '2026-01-05',
+      receivedG: 5000,
+    },
   ],
   [
     'batch',
