@@ -13,7 +13,7 @@ import { SimulatedScale } from '@tareline/simulator';
 import { SerialPort } from 'serialport';
 import { io, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO, login } from './support/auth-helpers.js';
+import { call, DEMO, login } from './support/auth-helpers.js';
 import { startTestHub, tempDataDir, type TestHub } from './support/test-app.js';
 
 async function until(what: string, check: () => boolean, timeoutMs = 10_000): Promise<void> {
@@ -134,6 +134,11 @@ describe('a scale on a real pseudo-terminal, read by the hub and seen on the liv
     // The first start compiles and opens the port under a busy CI machine: give it time.
     await until('online', () => states.at(-1)?.state === 'online', 30_000);
     expect(states.at(-1)?.detail).toMatch(/headered lines \(recognised\)/);
+    // The port is bench-1's alone: the demo's second bench, with no scale URL of its own, does not
+    // read it too (two links on one port fought over its lock and took turns failing).
+    const token = await login(hub, DEMO.lead.email, DEMO.lead.password);
+    const benches = await call<{ id: string }[]>(hub, 'GET', '/api/benches', { token });
+    expect(benches.body.map((b) => b.id)).toEqual(['bench-1']);
     const from = readings.length;
     await simulator.runScript([
       { do: 'place-cup', massG: 40 },

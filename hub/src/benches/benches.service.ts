@@ -73,7 +73,8 @@ export class BenchesService implements OnApplicationBootstrap, BeforeApplication
     await this.repository.claim(this.config.hub.id, !this.hubs.shared);
     for (const row of await this.repository.listOwned(this.config.hub.id)) {
       if (!this.scales.has(row.id)) {
-        await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
+        const link = this.linkOf(row.id, row.scaleUrl);
+        if (link) await this.scales.attach(row.id, link);
       }
     }
   }
@@ -87,7 +88,8 @@ export class BenchesService implements OnApplicationBootstrap, BeforeApplication
     await this.insertIfMissing({ ...bench, hubId }, by);
     const row = await this.repository.findById(bench.id);
     if (row?.active && row.hubId === this.config.hub.id && !this.scales.has(row.id)) {
-      await this.scales.attach(row.id, this.linkOf(row.id, row.scaleUrl));
+      const link = this.linkOf(row.id, row.scaleUrl);
+      if (link) await this.scales.attach(row.id, link);
     }
   }
 
@@ -116,14 +118,41 @@ export class BenchesService implements OnApplicationBootstrap, BeforeApplication
   }
 
   /** A bench's stored URL, else the hub's default; a bad stored URL falls back loudly. */
-  private linkOf(benchId: string, scaleUrl: string | null): ScaleLinkSettings {
-    if (!scaleUrl) return this.config.scale.link;
+  /**
+   * A bench's stored URL, else the hub's default. A port or network scale is read by one bench
+   * only (two links on one port fight over its lock, and each bench would show the other's cups):
+   * the default bench's. Another bench without a usable URL of its own then reads no scale and is
+   * not offered until an admin gives it one. A simulated default gives each bench its own.
+   */
+  private linkOf(benchId: string, scaleUrl: string | null): ScaleLinkSettings | undefined {
+    const fallback = (why: string): ScaleLinkSettings | undefined => {
+      const fallback = this.config.scale.link;
+      if (fallback.transport === 'simulated' || benchId === DEFAULT_BENCH.id) {
+        if (scaleUrl)
+          this.logger.error(`${benchId}: ${why}; reading the default scale link instead`);
+        return fallback;
+      }
+      this.logger.error(
+        `${benchId}: ${why}, and the default scale is ${DEFAULT_BENCH.id}'s: this bench reads no scale until it has a URL of its own`,
+      );
+      return undefined;
+    };
+    if (!scaleUrl) return fallback('no scale URL');
     try {
       return parseScaleUrl(scaleUrl);
     } catch (err) {
       if (!(err instanceof ScaleUrlError)) throw err;
-      this.logger.error(`${benchId}: ${err.message}; reading the default scale link instead`);
-      return this.config.scale.link;
+      return fallback(err.message);
+    }
+  }
+
+  /** What kind of scale a bench's URL names (quietly: a remote bench's hub logs its own). */
+  private transportOf(scaleUrl: string | null): ScaleLinkSettings['transport'] {
+    if (!scaleUrl) return this.config.scale.link.transport;
+    try {
+      return parseScaleUrl(scaleUrl).transport;
+    } catch {
+      return this.config.scale.link.transport;
     }
   }
 
@@ -164,7 +193,7 @@ export class BenchesService implements OnApplicationBootstrap, BeforeApplication
       // Its hub has not told anything yet (it never started since it took the bench).
       ...goneStatus(row.id, row.hubId ?? '?'),
       readabilityG: 0.1,
-      transport: this.linkOf(row.id, row.scaleUrl).transport,
+      transport: this.transportOf(row.scaleUrl),
     };
     return {
       id: row.id,
